@@ -1,0 +1,40 @@
+#!/usr/bin/env node
+/**
+ * Entry point: wires the subcommands and turns user errors into one line and exit code 2.
+ */
+import { Command, CommanderError } from 'commander';
+import { InputError } from '../core/inputError.js';
+import { toolVersion } from '../io/toolVersion.js';
+import { registerTiers } from './tiersCommand.js';
+import { registerPlan } from './planCommand.js';
+import { registerCompare } from './compareCommand.js';
+
+const EXIT_USER_ERROR = 2;
+
+async function main(argv: string[]): Promise<void> {
+  const program = new Command();
+  program
+    .name('tierplan')
+    .description('From global sensitivity indices to the smallest lab campaign that still calibrates a process model.')
+    .version(toolVersion())
+    .exitOverride()
+    .showHelpAfterError();
+  registerTiers(program);
+  registerPlan(program);
+  registerCompare(program);
+  await program.parseAsync(argv);
+}
+
+main(process.argv).catch((error: unknown) => {
+  if (error instanceof InputError) {
+    process.stderr.write(`tierplan: ${error.describe()}\n`);
+    process.exitCode = EXIT_USER_ERROR;
+    return;
+  }
+  if (error instanceof CommanderError) {
+    // Help and version exit 0; a usage mistake has already been printed by commander.
+    process.exitCode = error.exitCode === 0 ? 0 : EXIT_USER_ERROR;
+    return;
+  }
+  throw error;
+});

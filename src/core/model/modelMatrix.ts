@@ -1,0 +1,77 @@
+/**
+ * Model matrix of a polynomial model: one row f(x) per design point, one column per term.
+ *
+ * Points are in coded units, one coordinate per design factor in a fixed order. The terms are
+ * compiled once to an exponent table so that expanding a point is a tight loop over a
+ * Float64Array — the exchange searches call `expandInto` millions of times.
+ */
+import type { ModelTerm } from './modelTerm.js';
+
+export interface CompiledModel {
+  /** Design factor ids, in coordinate order. */
+  factorIds: readonly string[];
+  /** Number of terms, intercept included. */
+  p: number;
+  /** Row-major p × k table of exponents. */
+  exponents: Int32Array;
+  /** Highest power of each factor in any term (length k). */
+  maxPower: Int32Array;
+}
+
+export function compileModel(terms: readonly Pick<ModelTerm, 'powers'>[], factorIds: readonly string[]): CompiledModel {
+  const k = factorIds.length;
+  const p = terms.length;
+  const exponents = new Int32Array(p * k);
+  const maxPower = new Int32Array(k);
+  terms.forEach((term, t) => {
+    for (const [id, power] of Object.entries(term.powers)) {
+      const j = factorIds.indexOf(id);
+      if (j < 0) throw new Error(`model term uses ${id}, which is not a design factor`);
+      exponents[t * k + j] = power;
+      if (power > maxPower[j]) maxPower[j] = power;
+    }
+  });
+  return { factorIds, p, exponents, maxPower };
+}
+
+/** Writes f(x) for the coded point `x` (length k) into `out` (length p). */
+export function expandInto(model: CompiledModel, x: ArrayLike<number>, out: Float64Array): void {
+  const { p, exponents } = model;
+  const k = model.factorIds.length;
+  for (let t = 0; t < p; t++) {
+    let value = 1;
+    const base = t * k;
+    for (let j = 0; j < k; j++) {
+      const e = exponents[base + j];
+      if (e !== 0) value *= e === 1 ? x[j] : x[j] ** e;
+    }
+    out[t] = value;
+  }
+}
+
+/** The N × p model matrix of coded points, row-major. */
+export function modelMatrix(model: CompiledModel, points: readonly ArrayLike<number>[]): Float64Array {
+  const X = new Float64Array(points.length * model.p);
+  const row = new Float64Array(model.p);
+  points.forEach((x, i) => {
+    expandInto(model, x, row);
+    X.set(row, i * model.p);
+  });
+  return X;
+}
+
+/** Information matrix X'X (p × p, row-major) of coded points. */
+export function informationMatrix(model: CompiledModel, points: readonly ArrayLike<number>[]): Float64Array {
+  const p = model.p;
+  const M = new Float64Array(p * p);
+  const f = new Float64Array(p);
+  for (const x of points) {
+    expandInto(model, x, f);
+    for (let a = 0; a < p; a++) {
+      const fa = f[a];
+      if (fa === 0) continue;
+      for (let b = 0; b < p; b++) M[a * p + b] += fa * f[b];
+    }
+  }
+  return M;
+}

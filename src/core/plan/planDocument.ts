@@ -1,0 +1,64 @@
+/**
+ * The plan document: everything `tierplan plan` decided, as written to plan.json.
+ *
+ * Key names are a contract with users and with later commands (`analyze`, `augment`), so
+ * change them only with a version bump of `formatVersion`.
+ */
+import type { Criterion, Study } from '../study.js';
+import type { TierResult } from '../sensitivity/tierTypes.js';
+import type { FactorLevels, PlannedRun } from '../design/designTypes.js';
+
+export interface PlanModel {
+  /** Always true: the intercept is implied by the term syntax. */
+  intercept: true;
+  /** Terms in study syntax, intercept excluded, e.g. `inlet_temp^2`, `inlet_temp*feed_rate`. */
+  terms: string[];
+  /** Every term with the reason it is there (intercept first, written `1`). */
+  explained: { term: string; reason: string }[];
+  /** How the term list was chosen: `tiers`, a preset name, or `explicit`. */
+  source: 'tiers' | 'linear' | 'interactions' | 'quadratic' | 'explicit';
+}
+
+export interface PlanMetrics {
+  /** Number of model parameters, intercept included. */
+  p: number;
+  /** Fitting runs (centre and holdout runs excluded). */
+  N: number;
+  /** Natural log of det(X'X / N), coded units, fitting runs. */
+  logDetPerRun: number;
+  /** Textbook D-efficiency 100·|X'X|^(1/p) / N, coded units. */
+  dEfficiency: number;
+  /** 100 · (det M(exact) / det M(bound))^(1/p), relative to the approximate D-optimal design. */
+  boundEfficiency: number | null;
+  /** Why `boundEfficiency` is null, or how the bound was obtained. */
+  boundNote: string;
+  /** Average prediction variance over the region, N·trace((X'X)^-1 · moments), coded units. */
+  iCriterion: number;
+  criterion: Criterion;
+  seed: number;
+  starts: number;
+  /** How N was chosen. */
+  runsNote: string;
+}
+
+export interface PlanDocument {
+  formatVersion: 1;
+  tool: { name: 'tierplan'; version: string };
+  /** Short id printed on every sheet: derived from the checksum. */
+  planId: string;
+  /** SHA-256 of the document with `checksum`, `planId` and `createdAt` left out. */
+  checksum: string;
+  /** Metadata only; never part of the checksum. */
+  createdAt: string;
+  study: Omit<Study, 'warnings'>;
+  tiers: TierResult;
+  levels: FactorLevels[];
+  model: PlanModel;
+  runs: PlannedRun[];
+  metrics: PlanMetrics;
+  warnings: string[];
+  /** Filled by the comparison stage (`tierplan compare`). */
+  comparison?: unknown;
+  /** Filled by the scheduling stage: randomised run order. */
+  schedule?: unknown;
+}

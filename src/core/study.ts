@@ -1,0 +1,148 @@
+/**
+ * The validated study: what every later stage reads.
+ *
+ * The study file on disk (YAML or JSON) names its index tables by path; by the time a
+ * `Study` exists, `src/io/studyFile.ts` has read those tables, checked every row and
+ * resolved every default. Core code never sees paths, only the data here.
+ *
+ * Units: factor bounds, limits, precision and explicit levels are in engineering units
+ * (the factor's `unit`). Coded units map low → −1 and high → +1 (see `design/levels.ts`).
+ */
+
+export type FactorRole = 'operating' | 'model';
+
+export interface EquipmentLimits {
+  low: number;
+  high: number;
+}
+
+export interface Factor {
+  id: string;
+  name: string;
+  unit: string;
+  role: FactorRole;
+  low: number;
+  high: number;
+  nominal: number;
+  /** Smallest settable step in engineering units; settings are rounded to a multiple of it. */
+  precision?: number;
+  /** The equipment's rated range; a planned setting outside it is refused. */
+  limits?: EquipmentLimits;
+  /** A level count, or explicit level values in engineering units. Overrides the tier default. */
+  levels?: number | number[];
+  hardToChange?: boolean;
+}
+
+export interface Response {
+  id: string;
+  name: string;
+  unit: string;
+  /** Relative weight for the `weighted` aggregate; defaults to 1. */
+  weight: number;
+}
+
+/** One row of the first-order / total index table (long format). */
+export interface IndexRow {
+  factor: string;
+  response: string;
+  first: number;
+  total: number;
+  firstLow?: number;
+  firstHigh?: number;
+  totalLow?: number;
+  totalHigh?: number;
+}
+
+/** One row of the second-order index table. */
+export interface InteractionRow {
+  factorA: string;
+  factorB: string;
+  response: string;
+  index: number;
+}
+
+export type AggregateRule = 'mean' | 'max' | 'weighted';
+export type ConfidencePolicy = 'point' | 'upper';
+
+export interface TierPolicy {
+  aggregate: AggregateRule;
+  /** Aggregated total index at or above which a factor is critical. Default 0.30 (common practice). */
+  critical: number;
+  /** Aggregated total index at or above which a factor is moderate. Default 0.05 (common practice). */
+  moderate: number;
+  /** Second-order index (or interaction share) at or above which a pair earns an interaction term. Default 0.05. */
+  interaction: number;
+  /** `point` tiers on the estimate; `upper` tiers on the upper confidence bound (conservative). */
+  confidence: ConfidencePolicy;
+}
+
+export type ModelPreset = 'linear' | 'interactions' | 'quadratic';
+export type Criterion = 'D' | 'I';
+
+export interface DesignSettings {
+  /** Fitting runs, or `auto` for p plus the lack-of-fit allowance. */
+  runs: number | 'auto';
+  /** Derived from the tiers when absent; otherwise a preset or an explicit term list. */
+  model?: ModelPreset | string[];
+  criterion: Criterion;
+  centreRuns: number;
+  /** Holdout validation runs, or `auto` (about 20 % of N, at least 2). */
+  holdoutRuns: number | 'auto';
+  seed: number;
+  /** Default level counts per tier. */
+  levels: { critical: number; moderate: number };
+  /** Number of random starts of the exchange search. */
+  starts: number;
+}
+
+export interface SessionSettings {
+  /** Maximum runs in one session (day, shift or batch). */
+  maxRuns: number;
+  /** What a session is called on the run sheet, e.g. "Day". */
+  label: string;
+}
+
+export interface CostSettings {
+  currency: string;
+  /** Cost of one run, in `currency`. */
+  perRun: number;
+  /** Bench hours for one run. */
+  hoursPerRun: number;
+  /** Extra cost and hours for each level change of a hard-to-change factor. */
+  perLevelChange?: { cost: number; hours: number };
+}
+
+export interface Study {
+  title: string;
+  factors: Factor[];
+  responses: Response[];
+  indices: IndexRow[];
+  interactions: InteractionRow[];
+  policy: TierPolicy;
+  design: DesignSettings;
+  constraints: string[];
+  sessions?: SessionSettings;
+  costs?: CostSettings;
+  /** Where the study came from, for messages and the plan echo. Paths as given by the user. */
+  source: { studyFile: string; indicesFile: string; interactionsFile?: string };
+  /** Non-fatal findings from reading the study (clamped indices, first > total, …). */
+  warnings: string[];
+}
+
+export const DEFAULT_POLICY: TierPolicy = {
+  aggregate: 'mean',
+  critical: 0.3,
+  moderate: 0.05,
+  interaction: 0.05,
+  confidence: 'point',
+};
+
+export const DEFAULT_DESIGN: DesignSettings = {
+  runs: 'auto',
+  criterion: 'D',
+  centreRuns: 3,
+  holdoutRuns: 'auto',
+  seed: 1,
+  levels: { critical: 4, moderate: 3 },
+  starts: 20,
+};
