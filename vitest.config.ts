@@ -6,5 +6,6 @@ export default defineConfig({
     exclude: ['tests/browser/**', 'node_modules/**'],
     testTimeout: 60_000,
     pool: 'forks',
+    globalSetup: ['tests/support/buildOnce.ts'],
   },
 });
