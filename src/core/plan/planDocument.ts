@@ -7,6 +7,8 @@
 import type { Criterion, Study } from '../study.js';
 import type { TierResult } from '../sensitivity/tierTypes.js';
 import type { FactorLevels, PlannedRun } from '../design/designTypes.js';
+import type { Comparison } from '../compare/comparisonTypes.js';
+import type { Schedule } from '../schedule/scheduleTypes.js';
 
 export interface PlanModel {
   /** Always true: the intercept is implied by the term syntax. */
@@ -32,7 +34,7 @@ export interface PlanMetrics {
   boundEfficiency: number | null;
   /** Why `boundEfficiency` is null, or how the bound was obtained. */
   boundNote: string;
-  /** Average prediction variance over the region, N·trace((X'X)^-1 · moments), coded units. */
+  /** Average prediction variance over the region in σ² units, trace((X'X)^-1 · W) with W the region moment matrix, coded units. */
   iCriterion: number;
   criterion: Criterion;
   seed: number;
@@ -58,7 +60,7 @@ export interface PlanDocument {
   metrics: PlanMetrics;
   warnings: string[];
   /** Filled by the comparison stage (`tierplan compare`). */
-  comparison?: unknown;
+  comparison?: Comparison;
   /** Filled by the scheduling stage: randomised run order. */
-  schedule?: unknown;
+  schedule?: Schedule;
 }

@@ -31,7 +31,7 @@ export interface FactorTier {
 export interface InteractionPair {
   factorA: string;
   factorB: string;
-  /** Aggregated second-order index over responses (same rule as the totals). */
+  /** Largest second-order index over responses: one plan serves every response, so a pair that matters for any response earns its term. */
   index: number;
   /** The responses where the pair reaches the threshold. */
   responses: string[];
