@@ -1,0 +1,59 @@
+/**
+ * plan.json sealing: the checksum ignores file metadata, covers the content, and a damaged
+ * file is refused on reading.
+ */
+import { mkdtempSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { planChecksum, planJson, readPlanFile, sealPlan } from '../../src/io/planFile.js';
+import type { PlanDocument } from '../../src/core/plan/planDocument.js';
+
+const unsealed = {
+  formatVersion: 1,
+  tool: { name: 'tierplan', version: '0.0.0' },
+  planId: '',
+  checksum: '',
+  createdAt: '',
+  runs: [{ point: 'F01', purpose: 'fit', coded: { a: -1 }, settings: { a: 10 } }],
+  metrics: { p: 1, N: 1 },
+} as unknown as PlanDocument;
+
+describe('sealPlan', () => {
+  it('does not depend on the creation time or on key order', () => {
+    const a = sealPlan(unsealed, new Date('2026-01-01T00:00:00Z'));
+    const b = sealPlan({ metrics: unsealed.metrics, ...unsealed }, new Date('2027-06-01T00:00:00Z'));
+    expect(a.checksum).toBe(b.checksum);
+    expect(a.planId).toBe(`TP-${a.checksum.slice(0, 10)}`);
+    expect(a.createdAt).toBe('2026-01-01T00:00:00.000Z');
+  });
+
+  it('changes when a setting changes', () => {
+    const changed = { ...unsealed, runs: [{ ...unsealed.runs[0], settings: { a: 11 } }] } as PlanDocument;
+    expect(planChecksum(changed)).not.toBe(planChecksum(unsealed));
+  });
+});
+
+describe('readPlanFile', () => {
+  const dir = mkdtempSync(join(tmpdir(), 'tierplan-planfile-'));
+
+  it('reads back what was written', async () => {
+    const path = join(dir, 'plan.json');
+    const sealed = sealPlan(unsealed);
+    writeFileSync(path, planJson(sealed));
+    expect((await readPlanFile(path)).checksum).toBe(sealed.checksum);
+  });
+
+  it('refuses a plan edited by hand, naming the file and the key', async () => {
+    const path = join(dir, 'edited.json');
+    const sealed = sealPlan(unsealed);
+    writeFileSync(path, planJson({ ...sealed, runs: [{ ...sealed.runs[0], settings: { a: 99 } }] }));
+    await expect(readPlanFile(path)).rejects.toThrow(/checksum/);
+  });
+
+  it('refuses a file that is not a plan', async () => {
+    const path = join(dir, 'other.json');
+    writeFileSync(path, '{"title": "x"}');
+    await expect(readPlanFile(path)).rejects.toThrow(/formatVersion/);
+  });
+});
