@@ -1,0 +1,60 @@
+/**
+ * G-efficiency: how the worst prediction variance over the region compares with its
+ * theoretical floor, G = 100 · p / (N · max_x f(x)'(X'X)⁻¹f(x)) (Kiefer & Wolfowitz, 1960,
+ * "The equivalence of two extremum problems", Canadian J. Mathematics 12; Myers, Montgomery &
+ * Anderson-Cook, 2016, "Response Surface Methodology", 4th ed., §8.2).
+ *
+ * The maximum is taken over the enumerated candidate points when the region lists them;
+ * otherwise over the fixed Halton sample of predictionVariance.ts, the design points and the
+ * feasible vertices of the coded cube (where polynomial prediction variance usually peaks).
+ * A maximum over a finite set can only miss the true maximum from below, so the figure is an
+ * upper bound on the true G-efficiency; the note says which set was used.
+ */
+import type { CompiledModel } from '../model/modelMatrix.js';
+import type { CandidateRegion } from '../design/designTypes.js';
+import { predictionVariances } from './predictionVariance.js';
+
+/** Cube vertices are added only up to this many factors (2^12 = 4096 points). */
+const MAX_VERTEX_FACTORS = 12;
+
+export interface GEfficiency {
+  gEfficiency: number;
+  /** Largest scaled prediction variance N·f'(X'X)⁻¹f found. */
+  maxScaledVariance: number;
+  note: string;
+}
+
+export function gEfficiency(
+  model: CompiledModel,
+  inverse: Float64Array,
+  designPoints: readonly ArrayLike<number>[],
+  sample: readonly ArrayLike<number>[],
+  region?: CandidateRegion,
+): GEfficiency {
+  const N = designPoints.length;
+  const k = model.factorIds.length;
+  let points: ArrayLike<number>[];
+  let note: string;
+  if (region?.points) {
+    points = region.points;
+    note = `maximum over all ${region.points.length} candidate points`;
+  } else {
+    const vertices = k <= MAX_VERTEX_FACTORS ? cubeVertices(k).filter((x) => !region || region.isFeasible(x)) : [];
+    points = [...sample, ...designPoints, ...vertices];
+    note = `maximum over ${sample.length} quasi-random points, the design points and ${vertices.length} cube vertices (an upper bound on G-efficiency)`;
+  }
+  let maxVariance = 0;
+  for (const value of predictionVariances(model, inverse, points)) if (value > maxVariance) maxVariance = value;
+  const maxScaledVariance = N * maxVariance;
+  return { gEfficiency: (100 * model.p) / maxScaledVariance, maxScaledVariance, note };
+}
+
+function cubeVertices(k: number): number[][] {
+  const vertices: number[][] = [];
+  for (let code = 0; code < 2 ** k; code++) {
+    const vertex: number[] = [];
+    for (let j = 0; j < k; j++) vertex.push((code >> j) & 1 ? 1 : -1);
+    vertices.push(vertex);
+  }
+  return vertices;
+}
