@@ -1,0 +1,121 @@
+/**
+ * The randomised run order of a plan: sequence, session and, where the study marks factors as
+ * hard to change, restricted randomisation.
+ *
+ * Randomisation protects the effect estimates from drift and from whatever else changes with
+ * time (R. A. Fisher, 1935, The Design of Experiments, ch. II). The order comes from the seed
+ * alone: the same plan and seed give the same order.
+ *
+ * Steps:
+ * 1. Without hard-to-change factors: centre replicates take evenly spread slots
+ *    (`centreSpread.ts`), fit and holdout runs fill the rest in random order.
+ *    With them: runs are grouped by those settings (`hardToChangeGrouping.ts`).
+ * 2. With sessions: the fewest sessions of at most `maxRuns` runs (`sessionPlan.ts`). With groups,
+ *    up to GROUP_ORDER_TRIES random group orders are drawn and the first one that can be cut into
+ *    sessions without splitting a group is kept (else the one splitting fewest).
+ */
+import type { PlanDocument } from '../plan/planDocument.js';
+import type { Schedule, ScheduledRun } from './scheduleTypes.js';
+import { createRandom } from './randomOrder.js';
+import { cutIntoSessions, equalSessionSizes, sessionCountFor } from './sessionPlan.js';
+import {
+  countLevelChanges,
+  distinctSettings,
+  groupByHardToChange,
+  orderWithCentresSpread,
+  type GroupableRun,
+} from './hardToChangeGrouping.js';
+
+const GROUP_ORDER_TRIES = 64;
+const DEFAULT_SESSION_LABEL = 'Session';
+
+export function scheduleRuns(plan: Pick<PlanDocument, 'runs' | 'levels' | 'study'>, seed: number): Schedule {
+  const rng = createRandom(seed);
+  const runs: GroupableRun[] = plan.runs.map((run) => ({ point: run.point, purpose: run.purpose, settings: run.settings }));
+  const n = runs.length;
+  const sessions = plan.study.sessions;
+  const sessionLabel = sessions?.label?.trim() || DEFAULT_SESSION_LABEL;
+
+  const variedIds = new Set(plan.levels.filter((level) => level.varied).map((level) => level.id));
+  const hardFactors = plan.study.factors.filter((factor) => factor.hardToChange === true && variedIds.has(factor.id));
+  const hardIds = hardFactors.map((factor) => factor.id);
+
+  let sequence: GroupableRun[];
+  let sizes: number[];
+  let splitGroups = 0;
+  let groupCount = 0;
+  if (hardIds.length === 0) {
+    sequence = orderWithCentresSpread(runs, rng);
+    sizes = sessions ? equalSessionSizes(n, sessionCountFor(n, sessions.maxRuns)) : [n];
+  } else {
+    let best: { groups: GroupableRun[][]; sizes: number[]; splits: number } | undefined;
+    for (let attempt = 0; attempt < (sessions ? GROUP_ORDER_TRIES : 1); attempt++) {
+      const groups = groupByHardToChange(runs, hardIds, rng);
+      const cut = sessions ? cutIntoSessions(groups.map((group) => group.length), sessions.maxRuns) : { sizes: [n], splitGroups: 0 };
+      if (!best || cut.splitGroups < best.splits) best = { groups, sizes: cut.sizes, splits: cut.splitGroups };
+      if (best.splits === 0) break;
+    }
+    sequence = best!.groups.flat();
+    sizes = best!.sizes;
+    splitGroups = best!.splits;
+    groupCount = best!.groups.length;
+  }
+
+  const order: ScheduledRun[] = [];
+  let session = 1;
+  let leftInSession = sizes[0] ?? 0;
+  sequence.forEach((run, index) => {
+    while (leftInSession === 0 && session < sizes.length) leftInSession = sizes[session++];
+    order.push({ sequence: index + 1, point: run.point, purpose: run.purpose, session });
+    leftInSession--;
+  });
+
+  const sessionCount = sizes.length;
+  let hardToChange: Schedule['hardToChange'] = null;
+  if (hardIds.length > 0) {
+    const levelChanges = countLevelChanges(sequence, hardIds);
+    const names = listNames(hardFactors.map((factor) => factor.name));
+    const fewest = hardIds.length === 1 ? distinctSettings(runs, hardIds[0]) - 1 : null;
+    hardToChange = {
+      factors: hardIds,
+      levelChanges,
+      note:
+        `${names} ${hardIds.length === 1 ? 'is' : 'are'} hard to change, so runs sharing ${hardIds.length === 1 ? 'its setting' : 'their settings'} ` +
+        `are done together: ${groupCount} block${groupCount === 1 ? '' : 's'} in random order, runs inside each block in random order ` +
+        `(restricted randomisation; analyse the blocks as whole plots). ` +
+        `${levelChanges} setting change${levelChanges === 1 ? '' : 's'}${fewest !== null && fewest === levelChanges ? ' (the fewest possible)' : ''}, ` +
+        `not counting the first set-up${splitGroups > 0 ? `; ${splitGroups} block${splitGroups === 1 ? '' : 's'} had to continue into the next ${sessionLabel.toLowerCase()}` : ''}.`,
+    };
+  }
+
+  return { seed, order, sessionCount, sessionLabel, hardToChange, note: orderNote(order, sizes, sessionLabel, seed, hardIds.length > 0, sessions?.maxRuns) };
+}
+
+function orderNote(order: ScheduledRun[], sizes: number[], label: string, seed: number, grouped: boolean, maxRuns: number | undefined): string {
+  const centres = order.filter((run) => run.purpose === 'centre').map((run) => run.sequence);
+  const parts: string[] = [];
+  if (grouped) {
+    parts.push(`Run order drawn at random from seed ${seed}, with runs sharing a hard-to-change setting kept together`);
+  } else {
+    const centreText =
+      centres.length === 0
+        ? ''
+        : centres.length === 1
+          ? `; the centre repeat is run ${centres[0]}, mid-campaign`
+          : `; centre repeats are spread evenly (runs ${listNames(centres.map(String))}) to show any drift`;
+    parts.push(`Run order drawn at random from seed ${seed}${centreText}`);
+  }
+  let text = `${parts.join('')}.`;
+  if (maxRuns !== undefined && sizes.length > 1) {
+    const plural = `${label.toLowerCase()}${label.toLowerCase().endsWith('s') ? '' : 's'}`;
+    text += ` Split into ${sizes.length} ${plural} of at most ${maxRuns} runs (${sizes.join(', ')}); validation runs are mixed in among the others.`;
+  } else if (order.some((run) => run.purpose === 'holdout')) {
+    text += ' Validation runs are mixed in among the others.';
+  }
+  return text;
+}
+
+function listNames(names: string[]): string {
+  if (names.length <= 1) return names.join('');
+  return `${names.slice(0, -1).join(', ')} and ${names[names.length - 1]}`;
+}
