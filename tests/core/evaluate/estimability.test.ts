@@ -4,6 +4,9 @@
 import { describe, expect, it } from 'vitest';
 import { compileModel, modelMatrix } from '../../../src/core/model/modelMatrix.js';
 import { aliasMatrix, estimability } from '../../../src/core/evaluate/estimability.js';
+import type { ModelTerm } from '../../../src/core/model/modelTerm.js';
+
+type Powers = Pick<ModelTerm, 'powers'>;
 
 const factors = ['A', 'B', 'C'];
 // Principal fraction: C = AB.
@@ -13,8 +16,8 @@ const half = [
   [-1, 1, -1],
   [1, 1, 1],
 ];
-const mainEffects = [{ powers: {} }, { powers: { A: 1 } }, { powers: { B: 1 } }, { powers: { C: 1 } }];
-const interactions = [{ powers: { A: 1, B: 1 } }, { powers: { A: 1, C: 1 } }, { powers: { B: 1, C: 1 } }];
+const mainEffects: Powers[] = [{ powers: {} }, { powers: { A: 1 } }, { powers: { B: 1 } }, { powers: { C: 1 } }];
+const interactions: Powers[] = [{ powers: { A: 1, B: 1 } }, { powers: { A: 1, C: 1 } }, { powers: { B: 1, C: 1 } }];
 
 describe('alias matrix (Box & Draper; Montgomery §8.2)', () => {
   it('puts each main effect on the two-factor interaction of the other two factors', () => {
