@@ -1,0 +1,391 @@
+/**
+ * Reads a study file (YAML or JSON), checks it key by key, reads the index tables it
+ * names and returns the validated `Study` every later stage works from.
+ *
+ * Conventions fixed here (see DEVELOPERS.md, "Study file and index tables"):
+ * - One schema for both syntaxes (YAML 1.2 via the `yaml` package; JSON). Validation is a
+ *   zod 4 strict schema for shapes and types, then explicit cross-field checks (low < high,
+ *   nominal inside the range, critical > moderate, …) so each rule has one readable message.
+ * - An unknown key anywhere is an error with the closest valid key suggested (Levenshtein
+ *   distance) — a misspelt optional key silently ignored would change the plan unnoticed.
+ * - Every error is one line naming the study file and the key path (`factors[2].low`).
+ * - `policy`, `design`, `design.levels` may be partial; they merge over DEFAULT_POLICY and
+ *   DEFAULT_DESIGN. `responses[].weight` defaults to 1, `sessions.label` to "Session".
+ * - Table paths are relative to the study file's folder; `Study.source` keeps them as
+ *   written, messages show them joined to the study file's folder as the user gave it.
+ * - Ids are identifiers (letter, then letters, digits or `_`) because constraints and model
+ *   terms are written with them; keywords and constants of the constraint language are refused.
+ */
+import { readFile, stat } from 'node:fs/promises';
+import { dirname, extname, isAbsolute, join, resolve } from 'node:path';
+import { parseDocument } from 'yaml';
+import { z } from 'zod';
+import { InputError } from '../core/inputError.js';
+import { parseTerm } from '../core/design/termSyntax.js';
+import {
+  DEFAULT_DESIGN,
+  DEFAULT_POLICY,
+  type CostSettings,
+  type DesignSettings,
+  type Factor,
+  type Response,
+  type SessionSettings,
+  type Study,
+  type TierPolicy,
+} from '../core/study.js';
+import { readIndexTable, readInteractionTable } from './indexTables.js';
+import { fileSystemProblem } from './tableRows.js';
+import { didYouMean } from './suggestKey.js';
+
+export const STUDY_EXTENSIONS = ['.yaml', '.yml', '.json'] as const;
+
+/** Letter first, then letters, digits or underscores: usable in constraints and model terms. */
+const IDENTIFIER = /^[A-Za-z][A-Za-z0-9_]*$/;
+
+/** Words the constraint language (mathjs expressions) gives a meaning of its own. */
+const RESERVED_IDS = new Set([
+  'e', 'E', 'pi', 'PI', 'i', 'tau', 'phi', 'Infinity', 'NaN', 'true', 'false', 'null', 'undefined',
+  'and', 'or', 'not', 'xor', 'mod', 'to', 'in', 'end',
+]);
+
+// ------------------------------------------------------------------------------- schema
+
+const limitsSchema = z.strictObject({ low: z.number(), high: z.number() });
+
+const factorSchema = z.strictObject({
+  id: z.string(),
+  name: z.string().min(1),
+  unit: z.string(),
+  role: z.enum(['operating', 'model']),
+  low: z.number(),
+  high: z.number(),
+  nominal: z.number(),
+  precision: z.number().positive().optional(),
+  limits: limitsSchema.optional(),
+  levels: z
+    .union([z.number().int().min(2), z.array(z.number()).min(2)], {
+      error: 'must be a level count (a whole number ≥ 2) or a list of at least 2 level values',
+    })
+    .optional(),
+  hardToChange: z.boolean().optional(),
+});
+
+const responseSchema = z.strictObject({
+  id: z.string(),
+  name: z.string().min(1),
+  unit: z.string(),
+  weight: z.number().positive().optional(),
+});
+
+const policySchema = z.strictObject({
+  aggregate: z.enum(['mean', 'max', 'weighted']).optional(),
+  critical: z.number().optional(),
+  moderate: z.number().optional(),
+  interaction: z.number().optional(),
+  confidence: z.enum(['point', 'upper']).optional(),
+});
+
+const levelsSchema = z.strictObject({
+  critical: z.number().int().min(2).optional(),
+  moderate: z.number().int().min(2).optional(),
+});
+
+const designSchema = z.strictObject({
+  runs: z.union([z.number().int().min(1), z.literal('auto')], { error: 'must be a whole number of runs (≥ 1) or "auto"' }).optional(),
+  model: z
+    .union([z.enum(['linear', 'interactions', 'quadratic']), z.array(z.string().min(1)).min(1)], {
+      error: 'must be "linear", "interactions", "quadratic" or a list of model terms such as [inlet_temp, inlet_temp*feed_rate]',
+    })
+    .optional(),
+  criterion: z.enum(['D', 'I']).optional(),
+  centreRuns: z.number().int().min(0).optional(),
+  holdoutRuns: z.union([z.number().int().min(0), z.literal('auto')], { error: 'must be a whole number of runs (≥ 0) or "auto"' }).optional(),
+  seed: z.number().int().optional(),
+  levels: levelsSchema.optional(),
+  starts: z.number().int().min(1).optional(),
+});
+
+const sessionsSchema = z.strictObject({
+  maxRuns: z.number().int().min(1),
+  label: z.string().min(1).optional(),
+});
+
+const levelChangeSchema = z.strictObject({ cost: z.number().min(0), hours: z.number().min(0) });
+
+const costsSchema = z.strictObject({
+  currency: z.string().min(1),
+  perRun: z.number().positive(),
+  hoursPerRun: z.number().positive(),
+  perLevelChange: levelChangeSchema.optional(),
+});
+
+const studySchema = z.strictObject({
+  title: z.string().min(1),
+  factors: z.array(factorSchema).min(1),
+  responses: z.array(responseSchema).min(1),
+  indices: z.string().min(1),
+  interactions: z.string().min(1).optional(),
+  policy: policySchema.optional(),
+  design: designSchema.optional(),
+  constraints: z.array(z.string().min(1)).optional(),
+  sessions: sessionsSchema.optional(),
+  costs: costsSchema.optional(),
+});
+
+type StudyDocument = z.infer<typeof studySchema>;
+
+/** Valid keys of each object in the file, by key path with list indices written `[]`. */
+const KEYS_AT: Readonly<Record<string, readonly string[]>> = {
+  '': Object.keys(studySchema.shape),
+  'factors[]': Object.keys(factorSchema.shape),
+  'factors[].limits': Object.keys(limitsSchema.shape),
+  'responses[]': Object.keys(responseSchema.shape),
+  policy: Object.keys(policySchema.shape),
+  design: Object.keys(designSchema.shape),
+  'design.levels': Object.keys(levelsSchema.shape),
+  sessions: Object.keys(sessionsSchema.shape),
+  costs: Object.keys(costsSchema.shape),
+  'costs.perLevelChange': Object.keys(levelChangeSchema.shape),
+};
+
+// --------------------------------------------------------------------------------- load
+
+/** Reads, validates and completes the study at `path` (as the user gave it). */
+export async function loadStudy(path: string): Promise<Study> {
+  const document = await readStudyDocument(path);
+  const parsed = studySchema.safeParse(document, { reportInput: true });
+  if (!parsed.success) throw issueToError(parsed.error.issues, path);
+  const study = checkStudyRules(parsed.data, path);
+
+  const folder = dirname(resolve(path));
+  const shown = (written: string): string => (isAbsolute(written) ? written : join(dirname(path), written));
+  const ids = { factorIds: study.factors.map((factor) => factor.id), responseIds: study.responses.map((response) => response.id) };
+  const indexTable = await readIndexTable(resolve(folder, parsed.data.indices), shown(parsed.data.indices), ids);
+  const interactionTable =
+    parsed.data.interactions === undefined
+      ? { rows: [], warnings: [] }
+      : await readInteractionTable(resolve(folder, parsed.data.interactions), shown(parsed.data.interactions), ids, indexTable.rows);
+
+  return {
+    ...study,
+    indices: indexTable.rows,
+    interactions: interactionTable.rows,
+    source: {
+      studyFile: path,
+      indicesFile: parsed.data.indices,
+      ...(parsed.data.interactions !== undefined ? { interactionsFile: parsed.data.interactions } : {}),
+    },
+    warnings: [...indexTable.warnings, ...interactionTable.warnings],
+  };
+}
+
+async function readStudyDocument(path: string): Promise<unknown> {
+  const extension = extname(path).toLowerCase();
+  if (!(STUDY_EXTENSIONS as readonly string[]).includes(extension)) {
+    throw new InputError(`unsupported study file type "${extension || '(no extension)'}"; use .yaml, .yml or .json`, { file: path });
+  }
+  let text: string;
+  try {
+    if ((await stat(path)).isDirectory()) throw new InputError('is a folder, not a study file', { file: path });
+    text = await readFile(path, 'utf8');
+  } catch (error) {
+    if (error instanceof InputError) throw error;
+    throw new InputError(fileSystemProblem(error), { file: path });
+  }
+  if (text.charCodeAt(0) === 0xfeff) text = text.slice(1);
+  if (text.includes('\u0000')) throw new InputError('is not UTF-8 text (UTF-16 or binary); save it as UTF-8', { file: path });
+  if (text.trim() === '') throw new InputError('is empty', { file: path });
+
+  let data: unknown;
+  if (extension === '.json') {
+    try {
+      data = JSON.parse(text);
+    } catch (error) {
+      throw new InputError(`is not valid JSON (${(error as Error).message})`, { file: path });
+    }
+  } else {
+    const parsed = parseDocument(text, { prettyErrors: false });
+    const problem = parsed.errors[0];
+    if (problem) {
+      const line = problem.linePos?.[0];
+      const at = line ? ` at line ${line.line}, column ${line.col}` : '';
+      throw new InputError(`YAML syntax error${at}: ${problem.message.split('\n')[0]}`, { file: path });
+    }
+    data = parsed.toJS();
+  }
+  if (data === null || data === undefined) throw new InputError('has no content (only comments?)', { file: path });
+  if (typeof data !== 'object' || Array.isArray(data)) {
+    throw new InputError(`must be a mapping with keys such as ${KEYS_AT[''].slice(0, 4).join(', ')}, …`, { file: path });
+  }
+  return data;
+}
+
+// ----------------------------------------------------------------------- schema messages
+
+function keyPath(path: readonly PropertyKey[]): string {
+  let text = '';
+  for (const part of path) {
+    if (typeof part === 'number') text += `[${part}]`;
+    else text += text === '' ? String(part) : `.${String(part)}`;
+  }
+  return text;
+}
+
+/** The one error to show: unknown keys first (a typo explains the "missing" key after it). */
+function issueToError(issues: readonly z.core.$ZodIssue[], file: string): InputError {
+  const issue = issues.find((candidate) => candidate.code === 'unrecognized_keys') ?? issues[0];
+  const at = keyPath(issue.path);
+  if (issue.code === 'unrecognized_keys') {
+    const unknown = issue.keys[0];
+    const pattern = issue.path.map((part) => (typeof part === 'number' ? '[]' : String(part))).join('.').replace(/\.\[\]/g, '[]');
+    const valid = KEYS_AT[pattern] ?? [];
+    return new InputError(`unknown key "${unknown}"${didYouMean(unknown, valid)}`, {
+      file,
+      key: at === '' ? unknown : `${at}.${unknown}`,
+    });
+  }
+  return new InputError(issueMessage(issue), { file, key: at === '' ? '(top level)' : at });
+}
+
+function issueMessage(issue: z.core.$ZodIssue): string {
+  const input = (issue as { input?: unknown }).input;
+  const shown = typeof input === 'string' ? `"${input}"` : JSON.stringify(input);
+  switch (issue.code) {
+    case 'invalid_type': {
+      if (input === undefined) return 'is required';
+      if (issue.expected === 'number' && typeof input === 'number') return 'must be a finite number';
+      const wanted: Record<string, string> = {
+        number: 'a number',
+        int: 'a whole number',
+        string: 'text',
+        array: 'a list',
+        object: 'a mapping of keys',
+        boolean: 'true or false',
+      };
+      return `must be ${wanted[issue.expected] ?? issue.expected}, not ${shown}`;
+    }
+    case 'too_small': {
+      if (issue.origin === 'array') return `must list at least ${issue.minimum} entr${Number(issue.minimum) === 1 ? 'y' : 'ies'}`;
+      if (issue.origin === 'string') return 'must not be empty';
+      return `must be ${issue.inclusive ? 'at least' : 'greater than'} ${issue.minimum}, not ${shown}`;
+    }
+    case 'too_big':
+      return `must be ${issue.inclusive ? 'at most' : 'less than'} ${issue.maximum}, not ${shown}`;
+    case 'invalid_value': {
+      const options = issue.values.map((value) => `"${String(value)}"`).join(', ');
+      const hint = typeof input === 'string' ? didYouMean(input, issue.values.map(String)).replace(/; expected one of .*$/, '') : '';
+      return `must be one of ${options}, not ${shown}${hint}`;
+    }
+    default:
+      return issue.message;
+  }
+}
+
+// ---------------------------------------------------------------------- cross-field rules
+
+type CheckedStudy = Omit<Study, 'indices' | 'interactions' | 'source' | 'warnings'>;
+
+function checkStudyRules(data: StudyDocument, file: string): CheckedStudy {
+  const fail = (key: string, message: string): never => {
+    throw new InputError(message, { file, key });
+  };
+
+  const checkId = (id: string, key: string, seen: Map<string, number>, list: string): void => {
+    if (!IDENTIFIER.test(id)) {
+      fail(key, `"${id}" is not a usable id: start with a letter, then letters, digits or "_" (ids are written in constraints and model terms)`);
+    }
+    if (RESERVED_IDS.has(id)) fail(key, `"${id}" is reserved in constraint expressions; choose another id`);
+    const earlier = seen.get(id);
+    if (earlier !== undefined) fail(key, `id "${id}" is already used by ${list}[${earlier}]; ids must be unique`);
+  };
+
+  const factorSeen = new Map<string, number>();
+  const factors: Factor[] = data.factors.map((raw, i) => {
+    const at = `factors[${i}]`;
+    checkId(raw.id, `${at}.id`, factorSeen, 'factors');
+    factorSeen.set(raw.id, i);
+    if (!(raw.low < raw.high)) fail(`${at}.high`, `high (${raw.high}) must be greater than low (${raw.low})`);
+    if (raw.nominal < raw.low || raw.nominal > raw.high) {
+      fail(`${at}.nominal`, `nominal ${raw.nominal} lies outside the range ${raw.low} to ${raw.high}`);
+    }
+    if (raw.limits) {
+      if (!(raw.limits.low < raw.limits.high)) {
+        fail(`${at}.limits.high`, `limits.high (${raw.limits.high}) must be greater than limits.low (${raw.limits.low})`);
+      }
+      if (raw.low < raw.limits.low) fail(`${at}.low`, `low ${raw.low} is below the equipment limit ${raw.limits.low} (limits.low)`);
+      if (raw.high > raw.limits.high) fail(`${at}.high`, `high ${raw.high} is above the equipment limit ${raw.limits.high} (limits.high)`);
+    }
+    if (Array.isArray(raw.levels)) {
+      raw.levels.forEach((value, j) => {
+        if (value < raw.low || value > raw.high) {
+          fail(`${at}.levels[${j}]`, `level ${value} lies outside the range ${raw.low} to ${raw.high}`);
+        }
+      });
+      if (new Set(raw.levels).size < 2) fail(`${at}.levels`, 'needs at least 2 distinct level values');
+    }
+    const factor: Factor = { id: raw.id, name: raw.name, unit: raw.unit, role: raw.role, low: raw.low, high: raw.high, nominal: raw.nominal };
+    if (raw.precision !== undefined) factor.precision = raw.precision;
+    if (raw.limits !== undefined) factor.limits = { low: raw.limits.low, high: raw.limits.high };
+    if (raw.levels !== undefined) factor.levels = Array.isArray(raw.levels) ? [...raw.levels] : raw.levels;
+    if (raw.hardToChange !== undefined) factor.hardToChange = raw.hardToChange;
+    return factor;
+  });
+  if (!factors.some((factor) => factor.role === 'operating')) {
+    fail('factors', 'needs at least one factor with role "operating" (a setting the lab plan can vary)');
+  }
+
+  const responseSeen = new Map<string, number>();
+  const responses: Response[] = data.responses.map((raw, i) => {
+    checkId(raw.id, `responses[${i}].id`, responseSeen, 'responses');
+    responseSeen.set(raw.id, i);
+    return { id: raw.id, name: raw.name, unit: raw.unit, weight: raw.weight ?? 1 };
+  });
+
+  const policy: TierPolicy = { ...DEFAULT_POLICY, ...definedOnly(data.policy ?? {}) };
+  for (const name of ['critical', 'moderate', 'interaction'] as const) {
+    if (!(policy[name] > 0 && policy[name] < 1)) fail(`policy.${name}`, `must lie strictly between 0 and 1, not ${policy[name]}`);
+  }
+  if (!(policy.critical > policy.moderate)) {
+    fail('policy.critical', `critical (${policy.critical}) must be greater than moderate (${policy.moderate})`);
+  }
+
+  const { levels: levelOverrides, ...designRest } = data.design ?? {};
+  const design: DesignSettings = {
+    ...DEFAULT_DESIGN,
+    ...definedOnly(designRest),
+    levels: { ...DEFAULT_DESIGN.levels, ...definedOnly(levelOverrides ?? {}) },
+  };
+  if (Array.isArray(design.model)) {
+    design.model = [...design.model];
+    const operating = factors.filter((factor) => factor.role === 'operating').map((factor) => factor.id);
+    const modelOnly = factors.filter((factor) => factor.role === 'model').map((factor) => factor.id);
+    design.model.forEach((term, i) => {
+      const key = `design.model[${i}]`;
+      const parameter = modelOnly.find((id) => term.split(/[*^\s]+/).includes(id));
+      if (parameter !== undefined) fail(key, `term "${term}" uses ${parameter}, a model parameter; model terms use operating settings only`);
+      try {
+        parseTerm(term, operating, key);
+      } catch (error) {
+        if (error instanceof InputError) throw error.inFile(file);
+        throw error;
+      }
+    });
+  }
+
+  const result: CheckedStudy = { title: data.title, factors, responses, policy, design, constraints: [...(data.constraints ?? [])] };
+  if (data.sessions) {
+    const sessions: SessionSettings = { maxRuns: data.sessions.maxRuns, label: data.sessions.label ?? 'Session' };
+    result.sessions = sessions;
+  }
+  if (data.costs) {
+    const costs: CostSettings = { currency: data.costs.currency, perRun: data.costs.perRun, hoursPerRun: data.costs.hoursPerRun };
+    if (data.costs.perLevelChange) costs.perLevelChange = { ...data.costs.perLevelChange };
+    result.costs = costs;
+  }
+  return result;
+}
+
+/** The object without keys whose value is undefined, so spreading it keeps the defaults. */
+function definedOnly<T extends object>(value: T): Partial<T> {
+  return Object.fromEntries(Object.entries(value).filter(([, entry]) => entry !== undefined)) as Partial<T>;
+}
