@@ -1,0 +1,133 @@
+/**
+ * Fraction-of-design-space (FDS) chart: for each plan, the scaled prediction variance that a
+ * given fraction of the design region stays below.
+ *
+ * Method: Zahran, Anderson-Cook & Myers (2003), "Fraction of design space to assess
+ * prediction capability of response surface designs", Journal of Quality Technology 35(4).
+ * The curves are computed by the comparison stage (`Comparison.fdsCurves`); this module only
+ * draws them. Lower and flatter is better. Variance is in σ² units (not multiplied by N),
+ * so a plan with more runs is not penalised for its size. The y axis turns logarithmic when
+ * the curves span more than a factor of 20.
+ */
+import type { Spec } from 'vega';
+import type { ComparatorId, Comparison } from '../../core/compare/comparisonTypes.js';
+import { CHART_CONFIG, COMPARATOR_STYLE } from './chartPalette.js';
+import { renderVegaSvg } from './vegaSvg.js';
+
+/** Short names for legends; the report table carries each plan's full label. */
+export const COMPARATOR_SHORT_NAME: Record<ComparatorId, string> = {
+  proposed: 'Proposed plan',
+  conventional: 'Conventional plan',
+  'full-factorial': 'Full factorial',
+  fractional: 'Fractional factorial',
+  'plackett-burman': 'Plackett–Burman',
+  'full-grid': 'Full grid of levels',
+  'ccd-face': 'Central composite (face-centred)',
+  'ccd-rotatable': 'Central composite (rotatable)',
+  'box-behnken': 'Box–Behnken',
+};
+
+/** Fractions where a marker is drawn, so dashed lines keep a shape cue even when they overlap. */
+const MARKER_FRACTIONS = [0, 0.25, 0.5, 0.75, 1];
+
+export async function predictionVarianceChartSvg(comparison: Comparison): Promise<string | null> {
+  const curves = comparison.fdsCurves.filter((curve) => curve.fraction.length >= 2 && curve.fraction.length === curve.variance.length);
+  if (curves.length === 0) return null;
+  const ids = curves.map((curve) => curve.id);
+  const points = curves.flatMap((curve) =>
+    curve.fraction.map((fraction, index) => ({ id: curve.id, fraction, variance: curve.variance[index] })),
+  );
+  const markers = curves.flatMap((curve) =>
+    MARKER_FRACTIONS.map((target) => {
+      let best = 0;
+      curve.fraction.forEach((fraction, index) => {
+        if (Math.abs(fraction - target) < Math.abs(curve.fraction[best] - target)) best = index;
+      });
+      return { id: curve.id, fraction: curve.fraction[best], variance: curve.variance[best] };
+    }),
+  );
+  const positive = points.map((point) => point.variance).filter((value) => value > 0);
+  const low = Math.min(...positive);
+  const high = Math.max(...positive);
+  const logarithmic = positive.length === points.length && high / low > 20;
+
+  const spec: Spec = {
+    width: 380,
+    height: 220,
+    padding: 5,
+    autosize: 'pad',
+    config: CHART_CONFIG,
+    data: [{ name: 'points', values: points }, { name: 'markers', values: markers }],
+    scales: [
+      { name: 'x', type: 'linear', domain: [0, 1], range: 'width' },
+      logarithmic
+        ? { name: 'y', type: 'log', domain: { data: 'points', field: 'variance' }, range: 'height', nice: true }
+        : { name: 'y', type: 'linear', domain: { data: 'points', field: 'variance' }, range: 'height', nice: true, zero: true },
+      { name: 'stroke', type: 'ordinal', domain: ids, range: ids.map((id) => COMPARATOR_STYLE[id].stroke) },
+      { name: 'dash', type: 'ordinal', domain: ids, range: ids.map((id) => COMPARATOR_STYLE[id].dash) },
+      { name: 'shape', type: 'ordinal', domain: ids, range: ids.map((id) => COMPARATOR_STYLE[id].shape) },
+      { name: 'width', type: 'ordinal', domain: ids, range: ids.map((id) => COMPARATOR_STYLE[id].strokeWidth) },
+      { name: 'name', type: 'ordinal', domain: ids, range: ids.map((id) => COMPARATOR_SHORT_NAME[id]) },
+    ],
+    axes: [
+      { orient: 'bottom', scale: 'x', title: 'Fraction of the design region', format: '.0%', tickCount: 5, grid: true },
+      {
+        orient: 'left',
+        scale: 'y',
+        title: `Prediction variance (σ² units)${logarithmic ? ', log scale' : ''}`,
+        grid: true,
+      },
+    ],
+    legends: [
+      {
+        stroke: 'stroke',
+        strokeDash: 'dash',
+        orient: 'right',
+        title: 'Plan',
+        symbolType: 'stroke',
+        symbolSize: 300,
+        symbolStrokeWidth: 2.5,
+        encode: { labels: { update: { text: { scale: 'name', field: 'value' } } } },
+      },
+    ],
+    marks: [
+      {
+        type: 'group',
+        from: { facet: { name: 'series', data: 'points', groupby: 'id' } },
+        marks: [
+          {
+            type: 'line',
+            name: 'fdsLines',
+            from: { data: 'series' },
+            encode: {
+              enter: {
+                x: { scale: 'x', field: 'fraction' },
+                y: { scale: 'y', field: 'variance' },
+                stroke: { scale: 'stroke', field: 'id' },
+                strokeDash: { scale: 'dash', field: 'id' },
+                strokeWidth: { scale: 'width', field: 'id' },
+              },
+            },
+          },
+        ],
+      },
+      {
+        type: 'symbol',
+        name: 'fdsMarkers',
+        from: { data: 'markers' },
+        encode: {
+          enter: {
+            x: { scale: 'x', field: 'fraction' },
+            y: { scale: 'y', field: 'variance' },
+            shape: { scale: 'shape', field: 'id' },
+            stroke: { scale: 'stroke', field: 'id' },
+            fill: { value: '#ffffff' },
+            size: { value: 45 },
+            strokeWidth: { value: 1.5 },
+          },
+        },
+      },
+    ],
+  };
+  return renderVegaSvg(spec);
+}
