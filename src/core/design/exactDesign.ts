@@ -1,0 +1,161 @@
+/**
+ * Exact optimal design search: N points of the candidate region maximising det(X'X)
+ * (D-criterion) or minimising trace((X'X)⁻¹W) (I-criterion) for a compiled model.
+ *
+ * Method: multi-start local search. Each start is a random feasible design improved by
+ * passes of coordinate exchange (Meyer & Nachtsheim, 1995, Technometrics 37) and, when the
+ * feasible grid is enumerated and small enough (N·n·p² per pass within FEDOROV_BUDGET),
+ * of the modified Fedorov point exchange over the n grid points (Cook & Nachtsheim, 1980,
+ * Technometrics 22), until a full pass changes nothing. (X'X)⁻¹ is re-inverted after every
+ * pass to stop drift of the rank-one/rank-two updates. The best start wins; ties go to the
+ * earlier start.
+ *
+ * Determinism: start s draws from the seeded xoroshiro128+ stream jumped s times (pure-rand),
+ * so starts are independent streams and the same seed gives the same plan. The returned
+ * points are sorted lexicographically (the run order is randomised later).
+ */
+import { xoroshiro128plus } from 'pure-rand/generator/xoroshiro128plus';
+import { InputError } from '../inputError.js';
+import { modelMatrix, type CompiledModel } from '../model/modelMatrix.js';
+import { regionMoments } from '../evaluate/regionMoments.js';
+import { dEfficiency, iCriterion, logDetPerRun } from '../evaluate/designCriteria.js';
+import type { CandidateRegion } from './designTypes.js';
+import { ExchangeState } from './exchangeState.js';
+import { coordinateExchangePass } from './coordinateExchange.js';
+import { fedorovExchangePass, type CandidateSet } from './fedorovExchange.js';
+import { randomFeasiblePoint } from './gridSampling.js';
+
+/** Largest N·n·p² (multiply-adds per point-exchange pass) for which the Fedorov pass is run. */
+const FEDOROV_BUDGET = 2e7;
+/** Safety cap on passes per start; searches converge in far fewer. */
+const MAX_PASSES = 200;
+
+export interface ExactDesignRequest {
+  model: CompiledModel;
+  region: CandidateRegion;
+  runs: number;
+  criterion: 'D' | 'I';
+  seed: number;
+  starts: number;
+  /** Region moment matrix W (p × p); computed with `regionMoments` when absent. */
+  moments?: Float64Array;
+  onProgress?: (done: number, total: number) => void;
+}
+
+export interface ExactDesignResult {
+  /** N coded points, sorted lexicographically. */
+  points: number[][];
+  /** ln det(X'X / N). */
+  logDetPerRun: number;
+  /** Textbook D-efficiency 100·|X'X|^(1/p) / N, percent. */
+  dEfficiency: number;
+  /** trace((X'X)⁻¹ W). */
+  iCriterion: number;
+  /**
+   * The criterion reached by each start, in start order: logDetPerRun for the D-criterion,
+   * iCriterion for the I-criterion; −Infinity (D) or Infinity (I) for a start left singular.
+   */
+  perStart: number[];
+  /** The method used, in words. */
+  algorithm: string;
+  /** Exchange passes made, summed over starts. */
+  passes?: number;
+}
+
+export function findExactDesign(request: ExactDesignRequest): ExactDesignResult {
+  const { model, region, runs, criterion, seed, starts } = request;
+  const { p } = model;
+  const k = model.factorIds.length;
+  if (!Number.isInteger(runs) || runs < p) {
+    throw new InputError(`${runs} fitting runs cannot estimate ${p} model parameters; use at least ${p} runs or a smaller model`, {
+      key: 'design.runs',
+    });
+  }
+  if (!Number.isInteger(starts) || starts < 1) {
+    throw new InputError(`the number of search starts must be a whole number of at least 1, not ${starts}`, { key: 'design.starts' });
+  }
+  const moments = request.moments ?? regionMoments(model, region, seed).matrix;
+  const candidates = fedorovCandidates(model, region, runs);
+
+  const stream = xoroshiro128plus(seed);
+  const perStart: number[] = [];
+  let best: Float64Array | null = null;
+  let bestObjective = Number.NEGATIVE_INFINITY;
+  let passes = 0;
+  const start = new Float64Array(runs * k);
+  const point = new Float64Array(k);
+  for (let s = 0; s < starts; s++) {
+    const rng = stream.clone();
+    stream.jump();
+    for (let i = 0; i < runs; i++) {
+      if (!randomFeasiblePoint(region, rng, point)) {
+        throw new InputError('no feasible setting was found in the candidate region; check the constraints and equipment limits', {
+          key: 'constraints',
+        });
+      }
+      start.set(point, i * k);
+    }
+    const state = new ExchangeState(model, start, criterion, criterion === 'I' ? moments : null);
+    passes += improve(state, model, region, candidates);
+    const singular = state.ridge > 0;
+    if (criterion === 'D') perStart.push(singular ? Number.NEGATIVE_INFINITY : state.logDet - p * Math.log(runs));
+    else perStart.push(singular ? Number.POSITIVE_INFINITY : state.trace);
+    const objective = singular ? Number.NEGATIVE_INFINITY : state.objective();
+    if (objective > bestObjective) {
+      bestObjective = objective;
+      best = Float64Array.from(state.points);
+    }
+    request.onProgress?.(s + 1, starts);
+  }
+  if (best === null) {
+    throw new InputError(
+      `the candidate region cannot support the model: every one of ${starts} searches for ${runs} runs left the ${p} terms inestimable ` +
+        '(too few distinct feasible settings or levels for the terms asked for); relax the constraints, add levels or simplify the model',
+      { key: 'design.model' },
+    );
+  }
+
+  const points: number[][] = [];
+  for (let i = 0; i < runs; i++) points.push(Array.from(best.subarray(i * k, (i + 1) * k)));
+  points.sort(compareLexicographic);
+  const method = candidates
+    ? `coordinate exchange (Meyer & Nachtsheim 1995) then modified Fedorov exchange over ${candidates.points.length} feasible grid points (Cook & Nachtsheim 1980)`
+    : 'coordinate exchange (Meyer & Nachtsheim 1995) over the factor levels, grid not enumerated';
+  return {
+    points,
+    logDetPerRun: logDetPerRun(model, points),
+    dEfficiency: dEfficiency(model, points),
+    iCriterion: iCriterion(model, points, moments),
+    perStart,
+    algorithm: `${method}; ${criterion}-criterion; best of ${starts} random feasible starts (seed ${seed})`,
+    passes,
+  };
+}
+
+/** Passes until a full pass changes nothing; returns the number of passes. */
+function improve(state: ExchangeState, model: CompiledModel, region: CandidateRegion, candidates: CandidateSet | null): number {
+  for (let pass = 1; pass <= MAX_PASSES; pass++) {
+    const ridgeBefore = state.ridge;
+    let moved = coordinateExchangePass(state, model, region);
+    state.refresh();
+    if (candidates) {
+      moved += fedorovExchangePass(state, candidates);
+      state.refresh();
+    }
+    // Dropping the ridge switches the criterion back to the one asked for: keep going.
+    if (moved === 0 && ridgeBefore === state.ridge) return pass;
+  }
+  return MAX_PASSES;
+}
+
+function fedorovCandidates(model: CompiledModel, region: CandidateRegion, runs: number): CandidateSet | null {
+  if (region.points === null) return null;
+  const n = region.points.length;
+  if (runs * n * model.p * model.p > FEDOROV_BUDGET) return null;
+  return { points: region.points, rows: modelMatrix(model, region.points) };
+}
+
+function compareLexicographic(a: number[], b: number[]): number {
+  for (let j = 0; j < a.length; j++) if (a[j] !== b[j]) return a[j] - b[j];
+  return 0;
+}

@@ -1,0 +1,143 @@
+/**
+ * Inverse and log-determinant of an information matrix M = X'X, kept current under row
+ * changes by rank-one and rank-two updates instead of re-inverting.
+ *
+ * Sources: the Sherman–Morrison formula (Sherman & Morrison, 1950, "Adjustment of an inverse
+ * matrix corresponding to a change in one element of a given matrix", Ann. Math. Statist. 21)
+ * with the matrix determinant lemma det(M + u u') = det M · (1 + u'M⁻¹u); for replacing a
+ * design point x by y, Fedorov's delta function (Fedorov, 1972, "Theory of Optimal
+ * Experiments", §3.1): det M_new / det M = (1 + d(y))(1 − d(x)) + d(x,y)², with
+ * d(x) = f(x)'M⁻¹f(x), d(y) likewise and d(x,y) = f(x)'M⁻¹f(y). (Written out:
+ * 1 + [d(y) − d(x)] − [d(x)d(y) − d(x,y)²]; the bracket is subtracted once, not twice.)
+ * The from-scratch inverse is the Cholesky factorisation (Golub & Van Loan, 2013,
+ * "Matrix Computations", 4th ed., §4.2).
+ *
+ * Conventions: matrices are row-major p × p Float64Arrays, symmetric; the updates work in
+ * place so the exchange searches allocate nothing per trial. Updates drift numerically;
+ * callers re-invert from scratch periodically (after each full pass of a search).
+ */
+
+/** A pivot below this fraction of the largest diagonal entry counts as singular. */
+const SINGULAR_PIVOT = 1e-10;
+
+/**
+ * Writes M⁻¹ into `inverse` and returns ln det M, or returns -Infinity (leaving `inverse`
+ * unspecified) when M is not numerically positive definite.
+ */
+export function invertSymmetric(M: Float64Array, p: number, inverse: Float64Array): number {
+  const L = new Float64Array(p * p);
+  let largest = 0;
+  for (let i = 0; i < p; i++) largest = Math.max(largest, M[i * p + i]);
+  const floor = SINGULAR_PIVOT * Math.max(largest, Number.MIN_VALUE);
+  let logDet = 0;
+  for (let i = 0; i < p; i++) {
+    for (let j = 0; j <= i; j++) {
+      let sum = M[i * p + j];
+      for (let m = 0; m < j; m++) sum -= L[i * p + m] * L[j * p + m];
+      if (i === j) {
+        if (!(sum > floor)) return Number.NEGATIVE_INFINITY;
+        const root = Math.sqrt(sum);
+        L[i * p + i] = root;
+        logDet += 2 * Math.log(root);
+      } else {
+        L[i * p + j] = sum / L[j * p + j];
+      }
+    }
+  }
+  // L⁻¹ by forward substitution (in place of the upper triangle being unused), then M⁻¹ = L⁻ᵀL⁻¹.
+  const Linv = new Float64Array(p * p);
+  for (let i = 0; i < p; i++) {
+    Linv[i * p + i] = 1 / L[i * p + i];
+    for (let j = 0; j < i; j++) {
+      let sum = 0;
+      for (let m = j; m < i; m++) sum += L[i * p + m] * Linv[m * p + j];
+      Linv[i * p + j] = -sum / L[i * p + i];
+    }
+  }
+  for (let i = 0; i < p; i++) {
+    for (let j = 0; j <= i; j++) {
+      let sum = 0;
+      for (let m = i; m < p; m++) sum += Linv[m * p + i] * Linv[m * p + j];
+      inverse[i * p + j] = sum;
+      inverse[j * p + i] = sum;
+    }
+  }
+  return logDet;
+}
+
+/** out = A x for a p × p row-major A. */
+export function multiplyInto(A: Float64Array, p: number, x: ArrayLike<number>, out: Float64Array): void {
+  for (let i = 0; i < p; i++) {
+    let sum = 0;
+    const base = i * p;
+    for (let j = 0; j < p; j++) sum += A[base + j] * x[j];
+    out[i] = sum;
+  }
+}
+
+/** x · y over the first p entries. */
+export function dot(x: ArrayLike<number>, y: ArrayLike<number>, p: number): number {
+  let sum = 0;
+  for (let i = 0; i < p; i++) sum += x[i] * y[i];
+  return sum;
+}
+
+/** Determinant ratio det M_new / det M when design point x is replaced by y (Fedorov's delta + 1). */
+export function exchangeRatio(dx: number, dy: number, dxy: number): number {
+  return (1 + dy) * (1 - dx) + dxy * dxy;
+}
+
+/**
+ * Replaces M⁻¹ by (M + sign·f f')⁻¹ in place and returns the log-determinant change
+ * ln(1 + sign·f'M⁻¹f), or NaN (inverse untouched) when the update would make M singular.
+ * `work` (length p) receives M⁻¹f.
+ */
+export function rankOneUpdate(inverse: Float64Array, p: number, f: ArrayLike<number>, sign: 1 | -1, work: Float64Array): number {
+  multiplyInto(inverse, p, f, work);
+  const factor = 1 + sign * dot(f, work, p);
+  if (!(factor > 1e-12)) return Number.NaN;
+  const scale = sign / factor;
+  for (let i = 0; i < p; i++) {
+    const gi = work[i] * scale;
+    if (gi === 0) continue;
+    const base = i * p;
+    for (let j = 0; j < p; j++) inverse[base + j] -= gi * work[j];
+  }
+  return Math.log(factor);
+}
+
+/**
+ * Replaces M⁻¹ by (M − fx fx' + fy fy')⁻¹ in place — design point x exchanged for y — as two
+ * Sherman–Morrison steps (add y first so the intermediate matrix stays nonsingular), and
+ * returns the log-determinant change, or NaN (inverse untouched) when the result is singular.
+ * `work1`, `work2` are scratch vectors of length p.
+ */
+export function exchangeUpdate(
+  inverse: Float64Array,
+  p: number,
+  fx: ArrayLike<number>,
+  fy: ArrayLike<number>,
+  work1: Float64Array,
+  work2: Float64Array,
+): number {
+  multiplyInto(inverse, p, fx, work1);
+  multiplyInto(inverse, p, fy, work2);
+  const dx = dot(fx, work1, p);
+  const dy = dot(fy, work2, p);
+  const dxy = dot(fx, work2, p);
+  const ratio = exchangeRatio(dx, dy, dxy);
+  if (!(ratio > 1e-12)) return Number.NaN;
+  // After adding y: A1 = M⁻¹ − gy gy'/(1+dy); A1 fx = gx − gy·dxy/(1+dy); fx'A1fx = dx − dxy²/(1+dy).
+  const c = dxy / (1 + dy);
+  const dxAfter = dx - dxy * c;
+  const addScale = 1 / (1 + dy);
+  const removeScale = 1 / (1 - dxAfter);
+  for (let i = 0; i < p; i++) work1[i] -= c * work2[i];
+  for (let i = 0; i < p; i++) {
+    const base = i * p;
+    const gi = work2[i] * addScale;
+    const hi = work1[i] * removeScale;
+    for (let j = 0; j < p; j++) inverse[base + j] += hi * work1[j] - gi * work2[j];
+  }
+  return Math.log(ratio);
+}

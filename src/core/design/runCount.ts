@@ -1,0 +1,21 @@
+/**
+ * Default number of fitting runs: N = p + max(3, ⌈p/4⌉).
+ *
+ * Why: p runs fit the model exactly and leave nothing to test it with. The extra runs are
+ * distinct design points, so the fit leaves N − p degrees of freedom for lack of fit, tested
+ * against pure error from the replicated centre points (the lack-of-fit F test, Montgomery,
+ * "Design and Analysis of Experiments", 2017, 9th ed., §11.2). At least 3 extra degrees of
+ * freedom so the test is not powerless (common practice), growing with p (a quarter of the
+ * parameter count) so larger models keep a comparable margin for checking the fit.
+ */
+
+/** The default fitting-run count for a model with p parameters (intercept included). */
+export function defaultRunCount(p: number): { runs: number; note: string } {
+  const allowance = Math.max(3, Math.ceil(p / 4));
+  return {
+    runs: p + allowance,
+    note:
+      `${p} model parameters plus ${allowance} extra runs (the larger of 3 and a quarter of p) ` +
+      `leave ${allowance} degrees of freedom to test lack of fit against pure error from the centre replicates`,
+  };
+}
