@@ -1,0 +1,258 @@
+/**
+ * Levels per factor: how many settings each operating factor gets in the lab plan, which
+ * settings, and why.
+ *
+ * Method: the tier of a factor (critical / moderate / negligible, from its aggregated total
+ * Sobol' index) sets its level count — critical 4, moderate 3, negligible fixed at nominal
+ * by default. A polynomial in one variable of degree d needs at least d + 1 distinct levels
+ * to be estimable (Montgomery, 2017, *Design and Analysis of Experiments*, 9th ed., ch. 6–11:
+ * two levels fit a line, three a quadratic), so 4 levels allow a cubic trend and 3 a
+ * quadratic. Fixing the factors whose total index is small is the factor-fixing use of
+ * total indices (Saltelli et al., 2008, *Global Sensitivity Analysis: The Primer*, ch. 4).
+ *
+ * Conventions fixed here:
+ * - coded units: low → −1, high → +1, linear in between (`toCoded` / `toEngineering`);
+ * - levels are equally spaced over [low, high] in engineering units, rounded to the factor's
+ *   precision, and coded from the ROUNDED values (so a coded level may sit slightly off the
+ *   equally spaced coded value — the coded value is what the lab will actually set);
+ * - explicit levels from the study must already be settable (multiples of the precision) and
+ *   lie in [low, high];
+ * - a level outside the equipment limits is refused.
+ */
+import { InputError } from '../inputError.js';
+import type { DesignSettings, Factor } from '../study.js';
+import type { FactorTier, TierResult } from '../sensitivity/tierTypes.js';
+import type { FactorLevels } from './designTypes.js';
+
+/** Coded value of an engineering setting: low → −1, high → +1. */
+export function toCoded(factor: Pick<Factor, 'low' | 'high'>, value: number): number {
+  const half = (factor.high - factor.low) / 2;
+  const mid = (factor.high + factor.low) / 2;
+  return (value - mid) / half;
+}
+
+/** Engineering setting of a coded value (no rounding). */
+export function toEngineering(factor: Pick<Factor, 'low' | 'high'>, coded: number): number {
+  const half = (factor.high - factor.low) / 2;
+  const mid = (factor.high + factor.low) / 2;
+  return mid + coded * half;
+}
+
+/**
+ * Rounds to the nearest multiple of `precision` (halves go up) and removes binary noise, so
+ * 0.1-steps print as 12.3, not 12.299999999999999. Without a precision the value is only
+ * cleaned to 12 significant digits.
+ */
+export function roundToPrecision(value: number, precision?: number): number {
+  if (!Number.isFinite(value)) return value;
+  if (precision === undefined || !(precision > 0)) return cleanNoise(value);
+  // value / precision itself carries noise (12.35 / 0.1 = 123.49999999999999): clean it first.
+  const steps = Math.round(cleanNoise(value / precision));
+  const decimals = decimalsOf(precision);
+  const rounded = steps * precision;
+  return decimals <= 15 ? Number(rounded.toFixed(decimals)) : cleanNoise(rounded);
+}
+
+function cleanNoise(value: number): number {
+  if (value === 0) return 0;
+  return Number(value.toPrecision(12));
+}
+
+/** Decimal places needed to write the precision exactly (0.1 → 1, 0.25 → 2, 100 → 0, 1e-7 → 7). */
+function decimalsOf(precision: number): number {
+  const text = String(precision);
+  const exp = /e-(\d+)$/.exec(text);
+  if (exp) {
+    const mantissa = text.slice(0, text.indexOf('e'));
+    const dot = mantissa.indexOf('.');
+    return Number(exp[1]) + (dot < 0 ? 0 : mantissa.length - dot - 1);
+  }
+  const dot = text.indexOf('.');
+  return dot < 0 ? 0 : text.length - dot - 1;
+}
+
+/**
+ * Levels of every operating factor, in study order. Model-role factors are not settings and
+ * get no entry. `factors` is the study's full factor list (indices in error keys refer to it).
+ */
+export function planLevels(factors: Factor[], tiers: TierResult, defaults: DesignSettings['levels']): FactorLevels[] {
+  const result: FactorLevels[] = [];
+  factors.forEach((factor, index) => {
+    if (factor.role !== 'operating') return;
+    const tier = tiers.factors.find((t) => t.id === factor.id);
+    if (!tier) {
+      throw new InputError(`factor ${factor.id} has no sensitivity indices, so it cannot be tiered`, {
+        key: `factors[${index}]`,
+      });
+    }
+    result.push(levelsOf(factor, index, tier, tiers, defaults));
+  });
+  return result;
+}
+
+function levelsOf(
+  factor: Factor,
+  index: number,
+  tier: FactorTier,
+  tiers: TierResult,
+  defaults: DesignSettings['levels'],
+): FactorLevels {
+  const why = tierReason(tier, tiers);
+  const base = { id: factor.id, name: factor.name, unit: factor.unit, tier: tier.tier };
+  const override = factor.levels;
+
+  if (tier.tier === 'negligible' && override === undefined) {
+    const fixedAt = roundToPrecision(factor.nominal, factor.precision);
+    checkLimits(factor, index, [fixedAt], 'nominal');
+    return {
+      ...base,
+      varied: false,
+      values: [],
+      coded: [],
+      fixedAt,
+      reason: `${why}: fixed at its nominal ${formatValue(fixedAt, factor.unit)}`,
+    };
+  }
+
+  let values: number[];
+  let how: string;
+  if (Array.isArray(override)) {
+    values = explicitLevels(factor, index, override);
+    how = `${values.length} levels listed in the study file`;
+  } else {
+    const count = override ?? (tier.tier === 'critical' ? defaults.critical : defaults.moderate);
+    const key = override === undefined ? 'design.levels' : `factors[${index}].levels`;
+    if (!Number.isInteger(count) || count < 2) {
+      throw new InputError(`a varied factor needs a whole number of at least 2 levels (got ${count})`, { key });
+    }
+    values = spacedLevels(factor, index, count);
+    how = override === undefined ? `${count} levels` : `${count} levels set in the study file`;
+  }
+  checkLimits(factor, index, values, 'level');
+
+  const onRequest = tier.tier === 'negligible' ? ', varied on request' : '';
+  return {
+    ...base,
+    varied: true,
+    values,
+    coded: values.map((v) => roundToPrecision(toCoded(factor, v))),
+    fixedAt: null,
+    reason: `${why}${onRequest}: ${how} ${trendPhrase(values.length)}`,
+  };
+}
+
+/** "critical (aggregated total 0.37 ≥ 0.30)" — the comparison the tier rule made. */
+function tierReason(tier: FactorTier, tiers: TierResult): string {
+  const { critical, moderate, confidence } = tiers.policy;
+  const what = confidence === 'upper' ? 'upper bound of aggregated total' : 'aggregated total';
+  const v = fmt(tier.decidedOn);
+  let text: string;
+  if (tier.tier === 'critical') text = `critical (${what} ${v} ≥ ${fmt(critical)})`;
+  else if (tier.tier === 'moderate') text = `moderate (${what} ${v}, between ${fmt(moderate)} and ${fmt(critical)})`;
+  else text = `negligible (${what} ${v} < ${fmt(moderate)})`;
+  if (tier.borderline) text += ', borderline: its interval straddles a threshold';
+  return text;
+}
+
+function trendPhrase(count: number): string {
+  if (count === 2) return 'so a straight-line trend can be fitted';
+  if (count === 3) return 'so curvature (a quadratic) can be fitted';
+  if (count === 4) return 'so a cubic trend can be fitted';
+  return `so a trend up to degree ${count - 1} can be fitted`;
+}
+
+function fmt(x: number): string {
+  return x.toFixed(2);
+}
+
+function formatValue(value: number, unit: string): string {
+  return unit && unit !== '-' ? `${value} ${unit}` : String(value);
+}
+
+/** Number of settable values (multiples of the precision) inside [low, high]. */
+function settableCount(factor: Factor): number {
+  const p = factor.precision;
+  if (p === undefined || !(p > 0)) return Infinity;
+  const first = Math.ceil(roundNoise(factor.low / p));
+  const last = Math.floor(roundNoise(factor.high / p));
+  return Math.max(0, last - first + 1);
+}
+
+function roundNoise(x: number): number {
+  return Number(x.toPrecision(12));
+}
+
+function spacedLevels(factor: Factor, index: number, count: number): number[] {
+  const available = settableCount(factor);
+  if (available < count) {
+    throw new InputError(
+      `precision ${factor.precision} leaves only ${available} distinct settings between ${factor.low} and ${factor.high}, ` +
+        `fewer than the ${count} levels planned; use a finer precision or fewer levels`,
+      { key: `factors[${index}].precision` },
+    );
+  }
+  const p = factor.precision;
+  const values: number[] = [];
+  for (let i = 0; i < count; i++) {
+    const exact = factor.low + (i * (factor.high - factor.low)) / (count - 1);
+    let v = roundToPrecision(exact, p);
+    // Keep ends inside the studied range when low/high are not multiples of the precision.
+    if (p !== undefined && p > 0) {
+      if (v < factor.low) v = roundToPrecision(v + p, p);
+      if (v > factor.high) v = roundToPrecision(v - p, p);
+    }
+    values.push(v);
+  }
+  for (let i = 1; i < values.length; i++) {
+    if (values[i] <= values[i - 1]) {
+      throw new InputError(
+        `rounding to precision ${factor.precision} merges levels ${values[i - 1]} and ${values[i]}; ` +
+          'use a finer precision or fewer levels',
+        { key: `factors[${index}].precision` },
+      );
+    }
+  }
+  return values;
+}
+
+function explicitLevels(factor: Factor, index: number, listed: number[]): number[] {
+  const key = `factors[${index}].levels`;
+  const values = [...listed].sort((a, b) => a - b);
+  if (values.length < 2) throw new InputError('a varied factor needs at least 2 levels', { key });
+  for (const v of values) {
+    if (!Number.isFinite(v)) throw new InputError(`level ${v} is not a number`, { key });
+  }
+  checkLimits(factor, index, values, 'level');
+  for (const v of values) {
+    if (v < factor.low || v > factor.high) {
+      throw new InputError(
+        `level ${v} lies outside the studied range ${factor.low}–${factor.high} ${factor.unit}`.trimEnd(),
+        { key },
+      );
+    }
+    const r = roundToPrecision(v, factor.precision);
+    if (factor.precision !== undefined && Math.abs(r - v) > 1e-9 * Math.max(1, Math.abs(v))) {
+      throw new InputError(`level ${v} is not a multiple of the precision ${factor.precision}`, { key });
+    }
+  }
+  const rounded = values.map((v) => roundToPrecision(v, factor.precision));
+  for (let i = 1; i < rounded.length; i++) {
+    if (rounded[i] === rounded[i - 1]) {
+      throw new InputError(`level ${rounded[i]} is listed twice`, { key });
+    }
+  }
+  return rounded;
+}
+
+function checkLimits(factor: Factor, index: number, values: number[], what: 'level' | 'nominal'): void {
+  const limits = factor.limits;
+  if (!limits) return;
+  for (const v of values) {
+    if (v < limits.low || v > limits.high) {
+      throw new InputError(
+        `${what} ${v} ${factor.unit} of ${factor.id} refused: outside the rated range ${limits.low}–${limits.high} ${factor.unit}`,
+        { key: what === 'nominal' ? `factors[${index}].nominal` : `factors[${index}].levels` },
+      );
+    }
+  }
+}
