@@ -26,6 +26,26 @@ export interface FactorTier {
   interactionShare: number;
   /** Per-response values, for tables and charts. */
   perResponse: { response: string; first: number; total: number; totalLow?: number; totalHigh?: number }[];
+  /**
+   * What `decidedOn` is: the estimate (`point` policy), the aggregated upper bound
+   * (`upper` policy), or the estimate because the factor has no bounds under `upper`.
+   */
+  decisionBasis?: 'estimate' | 'upperBound' | 'estimateWithoutBounds';
+  /**
+   * Distance from `decidedOn` to the nearest cut-off that would change the tier
+   * (critical: decidedOn − critical; moderate: the smaller of decidedOn − moderate and
+   * critical − decidedOn; negligible: moderate − decidedOn). Never negative.
+   */
+  margin?: number;
+  /**
+   * Cut-off ranges over which the tier stays as it is, each with the other cut-off held
+   * at the policy value. The ends are the points where the tier changes; a cut-off equal
+   * to `decidedOn` counts the factor as reaching it (comparison is ≥). `null`: no end.
+   */
+  tierStable?: {
+    critical: { from: number; to: number | null };
+    moderate: { from: number; to: number | null };
+  };
 }
 
 export interface InteractionPair {
@@ -50,7 +70,14 @@ export interface SweepRow {
   /** Critical threshold used for this row. */
   critical: number;
   moderate: number;
+  /** Factors of both roles in each tier. */
   counts: Record<Tier, number>;
+  /** Which cut-off this row varies; the other is held at the policy value. */
+  swept?: 'critical' | 'moderate';
+  /** The row whose cut-offs are the policy's own. */
+  isPolicy?: boolean;
+  /** The same counts split by factor role. */
+  countsByRole?: Record<FactorRole, Record<Tier, number>>;
 }
 
 export interface TierResult {
@@ -64,4 +91,6 @@ export interface TierResult {
     literature: number;
   };
   sweep: SweepRow[];
+  /** Findings about the decision itself (e.g. factors tiered on the estimate for want of bounds). */
+  notes?: string[];
 }
