@@ -1,10 +1,10 @@
 /**
  * Chart of the threshold sweep: how many factors land in each tier as one threshold moves.
  *
- * The sweep rows come from the tier stage (`TierResult.sweep`). When the sweep varies both
- * thresholds, the chart shows the slice through the chosen moderate threshold (critical
- * threshold on the x axis); when only the moderate threshold varies, it shows that instead.
- * A sweep with fewer than two usable rows gets no chart (the report keeps the table).
+ * The sweep rows come from the tier stage (`TierResult.sweep`, see
+ * src/core/sensitivity/thresholdSweep.ts). One chart shows one slice: the chosen threshold
+ * moves along the x axis while the other stays at the policy value. A slice with fewer than
+ * two distinct values gets no chart (the report keeps the table).
  * The threshold in use is marked by a labelled vertical line; each tier has its own colour,
  * dash pattern, marker and direct label (see chartPalette.ts). Counts exist only at the swept
  * thresholds; the straight segments between markers only guide the eye.
@@ -17,37 +17,41 @@ import { renderVegaSvg } from './vegaSvg.js';
 const TIERS: Tier[] = ['critical', 'moderate', 'negligible'];
 const SAME = 1e-9;
 
-/** The rows the chart draws and which threshold is on the x axis, or null when no slice has two rows. */
-export function sweepSlice(tiers: TierResult): { axis: 'critical' | 'moderate'; rows: SweepRow[] } | null {
-  const { critical, moderate } = tiers.policy;
-  const byCritical = tiers.sweep
-    .filter((row) => Math.abs(row.moderate - moderate) < SAME)
-    .sort((a, b) => a.critical - b.critical);
-  if (new Set(byCritical.map((row) => row.critical)).size >= 2) return { axis: 'critical', rows: byCritical };
-  const byModerate = tiers.sweep
-    .filter((row) => Math.abs(row.critical - critical) < SAME)
-    .sort((a, b) => a.moderate - b.moderate);
-  if (new Set(byModerate.map((row) => row.moderate)).size >= 2) return { axis: 'moderate', rows: byModerate };
-  return null;
+export type SweptThreshold = 'critical' | 'moderate';
+
+/**
+ * The sweep rows that move `axis` while the other threshold stays at the policy value, in
+ * ascending order, or null when fewer than two distinct values remain.
+ */
+export function sweepSlice(tiers: TierResult, axis: SweptThreshold): SweepRow[] | null {
+  const held: SweptThreshold = axis === 'critical' ? 'moderate' : 'critical';
+  const rows = tiers.sweep
+    .filter((row) => Math.abs(row[held] - tiers.policy[held]) < SAME)
+    .sort((a, b) => a[axis] - b[axis]);
+  return new Set(rows.map((row) => row[axis])).size >= 2 ? rows : null;
 }
 
-export async function thresholdSweepChartSvg(tiers: TierResult): Promise<string | null> {
-  const slice = sweepSlice(tiers);
-  if (slice === null) return null;
-  const { axis, rows } = slice;
+export async function thresholdSweepChartSvg(tiers: TierResult, axis: SweptThreshold): Promise<string | null> {
+  const rows = sweepSlice(tiers, axis);
+  if (rows === null) return null;
   const points = rows.flatMap((row) =>
     TIERS.map((tier) => ({ tier, threshold: row[axis], count: row.counts[tier] })),
   );
   const last = rows[rows.length - 1];
-  const endLabels = TIERS.map((tier) => ({ tier, threshold: last[axis], count: last.counts[tier], text: tier }));
+  // Tiers that end on the same count would print their labels on top of each other: fan them out.
+  const endLabels = TIERS.map((tier) => {
+    const tied = TIERS.filter((other) => last.counts[other] === last.counts[tier]);
+    const dy = (tied.indexOf(tier) - (tied.length - 1) / 2) * 13;
+    return { tier, threshold: last[axis], count: last.counts[tier], text: tier, dy };
+  });
   const current = axis === 'critical' ? tiers.policy.critical : tiers.policy.moderate;
   const maxCount = Math.max(1, ...points.map((point) => point.count));
   const style = (key: keyof (typeof SWEEP_SERIES_STYLE)['critical']) =>
     TIERS.map((tier) => SWEEP_SERIES_STYLE[tier][key]);
 
   const spec: Spec = {
-    width: 380,
-    height: 190,
+    width: 300,
+    height: 170,
     padding: { left: 5, top: 20, right: 80, bottom: 5 },
     autosize: 'pad',
     config: CHART_CONFIG,
@@ -112,6 +116,7 @@ export async function thresholdSweepChartSvg(tiers: TierResult): Promise<string 
           enter: {
             x: { scale: 'x', field: 'threshold', offset: 8 },
             y: { scale: 'y', field: 'count' },
+            dy: { field: 'dy' },
             text: { field: 'text' },
             baseline: { value: 'middle' },
             fill: { scale: 'stroke', field: 'tier' },
