@@ -18,7 +18,7 @@
  */
 import { readFile, stat } from 'node:fs/promises';
 import { dirname, extname, isAbsolute, join, resolve } from 'node:path';
-import { parseDocument } from 'yaml';
+import { LineCounter, parseDocument } from 'yaml';
 import { z } from 'zod';
 import { InputError } from '../core/inputError.js';
 import { parseTerm } from '../core/design/termSyntax.js';
@@ -204,11 +204,12 @@ async function readStudyDocument(path: string): Promise<unknown> {
       throw new InputError(`is not valid JSON (${(error as Error).message})`, { file: path });
     }
   } else {
-    const parsed = parseDocument(text, { prettyErrors: false });
+    const lineCounter = new LineCounter();
+    const parsed = parseDocument(text, { prettyErrors: false, lineCounter });
     const problem = parsed.errors[0];
     if (problem) {
-      const line = problem.linePos?.[0];
-      const at = line ? ` at line ${line.line}, column ${line.col}` : '';
+      const line = lineCounter.linePos(problem.pos[0]);
+      const at = ` at line ${line.line}, column ${line.col}`;
       throw new InputError(`YAML syntax error${at}: ${problem.message.split('\n')[0]}`, { file: path });
     }
     data = parsed.toJS();
@@ -273,7 +274,7 @@ function issueMessage(issue: z.core.$ZodIssue): string {
       return `must be ${issue.inclusive ? 'at most' : 'less than'} ${issue.maximum}, not ${shown}`;
     case 'invalid_value': {
       const options = issue.values.map((value) => `"${String(value)}"`).join(', ');
-      const hint = typeof input === 'string' ? didYouMean(input, issue.values.map(String)).replace(/; expected one of .*$/, '') : '';
+      const hint = typeof input === 'string' && input.length >= 3 ? didYouMean(input, issue.values.map(String)).replace(/; expected one of .*$/, '') : '';
       return `must be one of ${options}, not ${shown}${hint}`;
     }
     default:
