@@ -161,8 +161,9 @@ function trendPhrase(count: number): string {
   return `so a trend up to degree ${count - 1} can be fitted`;
 }
 
+/** Two decimals, halves up after cleaning binary noise (0.365 prints 0.37, not 0.36). */
 function fmt(x: number): string {
-  return x.toFixed(2);
+  return roundToPrecision(x, 0.01).toFixed(2);
 }
 
 function formatValue(value: number, unit: string): string {
@@ -195,7 +196,10 @@ function spacedLevels(factor: Factor, index: number, count: number): number[] {
   const values: number[] = [];
   for (let i = 0; i < count; i++) {
     const exact = factor.low + (i * (factor.high - factor.low)) / (count - 1);
-    let v = roundToPrecision(exact, p);
+    // Halves round towards the middle of the range so that the levels stay symmetric about
+    // it (30–45 in 0.5 steps: 33.75 → 34 and 41.25 → 41, coded ∓0.467).
+    const mid = (factor.low + factor.high) / 2;
+    let v = exact > mid ? -roundToPrecision(-exact, p) : roundToPrecision(exact, p);
     // Keep ends inside the studied range when low/high are not multiples of the precision.
     if (p !== undefined && p > 0) {
       if (v < factor.low) v = roundToPrecision(v + p, p);

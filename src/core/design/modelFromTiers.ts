@@ -31,6 +31,7 @@ import type { ModelTerm } from '../model/modelTerm.js';
 import { termLabel } from '../model/modelTerm.js';
 import type { FactorTier, TierResult } from '../sensitivity/tierTypes.js';
 import type { FactorLevels } from './designTypes.js';
+import { roundToPrecision } from './levels.js';
 import { parseTerm } from './termSyntax.js';
 
 export interface DerivedModel {
@@ -270,6 +271,7 @@ function sortTerms(terms: ModelTerm[], order: readonly string[]): ModelTerm[] {
     .map((entry) => entry.term);
 }
 
+/** Two decimals, halves up after cleaning binary noise (0.365 prints 0.37, not 0.36). */
 function fmt(x: number): string {
-  return x.toFixed(2);
+  return roundToPrecision(x, 0.01).toFixed(2);
 }

@@ -1,0 +1,206 @@
+import { describe, expect, it } from 'vitest';
+import { planLevels, roundToPrecision, toCoded, toEngineering } from '../../../src/core/design/levels.js';
+import { InputError } from '../../../src/core/inputError.js';
+import type { Factor } from '../../../src/core/study.js';
+import { DEFAULT_DESIGN } from '../../../src/core/study.js';
+import type { TierResult } from '../../../src/core/sensitivity/tierTypes.js';
+import { sampleFactors, sampleTiers } from './sprayDryerFixture.js';
+
+const defaults = DEFAULT_DESIGN.levels;
+
+function withFactor(id: string, patch: Partial<Factor>): Factor[] {
+  return sampleFactors().map((f) => (f.id === id ? { ...f, ...patch } : f));
+}
+
+function inputError(fn: () => unknown): InputError {
+  try {
+    fn();
+  } catch (error) {
+    if (error instanceof InputError) return error;
+    throw error;
+  }
+  throw new Error('expected an InputError');
+}
+
+describe('coding', () => {
+  // Coded units: low → −1, high → +1, linear (Montgomery, Design and Analysis of Experiments, 9th ed., §6.2).
+  it('maps low to −1, high to +1 and the midpoint to 0', () => {
+    const f = { low: 160, high: 200 };
+    expect(toCoded(f, 160)).toBe(-1);
+    expect(toCoded(f, 200)).toBe(1);
+    expect(toCoded(f, 180)).toBe(0);
+    expect(toCoded(f, 173)).toBeCloseTo(-0.35, 12);
+    expect(toEngineering(f, 0.35)).toBeCloseTo(187, 12);
+    expect(toEngineering(f, toCoded(f, 166.5))).toBeCloseTo(166.5, 12);
+  });
+});
+
+describe('roundToPrecision', () => {
+  it('rounds to multiples of the precision without binary noise', () => {
+    expect(roundToPrecision(12.299999999999999, 0.1)).toBe(12.3);
+    expect(roundToPrecision(0.1 + 0.2, 0.1)).toBe(0.3);
+    expect(String(roundToPrecision(8 + 3 * (8 / 3), 0.1))).toBe('16');
+    expect(roundToPrecision(173.333, 1)).toBe(173);
+    expect(roundToPrecision(37.3, 0.5)).toBe(37.5);
+    expect(roundToPrecision(21437, 100)).toBe(21400);
+    expect(roundToPrecision(0.123456, 0.25)).toBe(0);
+    expect(roundToPrecision(0.2, 0.25)).toBe(0.25);
+    expect(roundToPrecision(3.3e-7, 1e-7)).toBe(3e-7);
+  });
+  it('sends halves up, including ones that carry binary noise (12.35 / 0.1 = 123.49999…)', () => {
+    expect(roundToPrecision(12.35, 0.1)).toBe(12.4);
+    expect(roundToPrecision(180.5, 1)).toBe(181);
+  });
+  it('only cleans noise when no precision is given', () => {
+    expect(roundToPrecision(0.1 + 0.2)).toBe(0.3);
+    expect(roundToPrecision(1 / 3)).toBeCloseTo(1 / 3, 11);
+  });
+});
+
+describe('planLevels on the spray-dryer sample', () => {
+  const levels = planLevels(sampleFactors(), sampleTiers(), defaults);
+
+  it('gives operating factors only, in study order', () => {
+    expect(levels.map((l) => l.id)).toEqual(['inlet_temp', 'feed_solids', 'feed_rate', 'atomiser_speed', 'air_flow']);
+  });
+
+  it('gives critical factors 4 equally spaced levels rounded to precision, coded from the rounded values', () => {
+    const inlet = levels[0];
+    // 160 + i·40/3 = 160, 173.33, 186.67, 200 → 1 °C steps → 160, 173, 187, 200 (hand computation)
+    expect(inlet.values).toEqual([160, 173, 187, 200]);
+    expect(inlet.coded).toEqual([-1, -0.35, 0.35, 1]);
+    expect(inlet.varied).toBe(true);
+    expect(inlet.fixedAt).toBeNull();
+    expect(inlet.reason).toBe('critical (aggregated total 0.37 ≥ 0.30): 4 levels so a cubic trend can be fitted');
+    const solids = levels[1];
+    expect(solids.values).toEqual([30, 35, 40, 45]);
+    expect(solids.coded[1]).toBeCloseTo(-1 / 3, 12);
+    expect(solids.coded[2]).toBeCloseTo(1 / 3, 12);
+  });
+
+  it('gives moderate factors 3 levels', () => {
+    expect(levels[2].values).toEqual([8, 12, 16]);
+    expect(levels[2].coded).toEqual([-1, 0, 1]);
+    expect(levels[2].reason).toBe(
+      'moderate (aggregated total 0.18, between 0.05 and 0.30): 3 levels so curvature (a quadratic) can be fitted',
+    );
+    expect(levels[3].values).toEqual([15000, 20000, 25000]);
+  });
+
+  it('fixes the negligible air flow at its nominal 400 m³/h', () => {
+    const air = levels[4];
+    expect(air.varied).toBe(false);
+    expect(air.values).toEqual([]);
+    expect(air.coded).toEqual([]);
+    expect(air.fixedAt).toBe(400);
+    expect(air.reason).toBe('negligible (aggregated total 0.04 < 0.05): fixed at its nominal 400 m³/h');
+  });
+});
+
+describe('planLevels rules', () => {
+  it('takes the tier defaults from the design settings', () => {
+    const levels = planLevels(sampleFactors(), sampleTiers(), { critical: 5, moderate: 2 });
+    // 30 + i·3.75 = 30, 33.75, 37.5, 41.25, 45 → 0.5 steps, halves towards the middle: symmetric levels
+    expect(levels[1].values).toEqual([30, 34, 37.5, 41, 45]);
+    expect(levels[1].coded[1]).toBeCloseTo(-levels[1].coded[3], 12);
+    expect(levels[2].values).toEqual([8, 16]);
+    expect(levels[2].reason).toContain('2 levels so a straight-line trend can be fitted');
+  });
+
+  it('accepts a level count override and says it came from the study file', () => {
+    const levels = planLevels(withFactor('feed_rate', { levels: 5 }), sampleTiers(), defaults);
+    expect(levels[2].values).toEqual([8, 10, 12, 14, 16]);
+    expect(levels[2].reason).toContain('5 levels set in the study file so a trend up to degree 4');
+  });
+
+  it('accepts an explicit list of engineering values and sorts it', () => {
+    const levels = planLevels(withFactor('feed_rate', { levels: [16, 8, 10.5] }), sampleTiers(), defaults);
+    expect(levels[2].values).toEqual([8, 10.5, 16]);
+    expect(levels[2].coded).toEqual([-1, -0.375, 1]);
+    expect(levels[2].reason).toContain('3 levels listed in the study file');
+  });
+
+  it('varies a negligible factor on request and says so', () => {
+    const levels = planLevels(withFactor('air_flow', { levels: 3 }), sampleTiers(), defaults);
+    expect(levels[4].varied).toBe(true);
+    expect(levels[4].values).toEqual([350, 400, 450]);
+    expect(levels[4].fixedAt).toBeNull();
+    expect(levels[4].reason).toContain('varied on request');
+  });
+
+  it('states the upper-bound rule and borderline factors in the reason', () => {
+    const tiers = sampleTiers();
+    tiers.policy = { ...tiers.policy, confidence: 'upper' };
+    tiers.factors[2] = { ...tiers.factors[2], decidedOn: 0.2, borderline: true };
+    const levels = planLevels(sampleFactors(), tiers, defaults);
+    expect(levels[2].reason).toContain('upper bound of aggregated total 0.20');
+    expect(levels[2].reason).toContain('borderline');
+  });
+
+  it('rounds the nominal of a fixed factor to its precision', () => {
+    const levels = planLevels(withFactor('air_flow', { nominal: 401.2 }), sampleTiers(), defaults);
+    expect(levels[4].fixedAt).toBe(400);
+  });
+
+  it('keeps the end levels inside the range when low/high are not multiples of the precision', () => {
+    const levels = planLevels(withFactor('feed_rate', { low: 8.05, high: 15.95, precision: 0.1 }), sampleTiers(), defaults);
+    const v = levels[2].values;
+    expect(v[0]).toBeGreaterThanOrEqual(8.05);
+    expect(v[2]).toBeLessThanOrEqual(15.95);
+    expect(v).toEqual([8.1, 12, 15.9]);
+  });
+});
+
+describe('planLevels errors', () => {
+  it('refuses a precision that leaves fewer settings than levels', () => {
+    const e = inputError(() => planLevels(withFactor('inlet_temp', { precision: 20 }), sampleTiers(), defaults));
+    expect(e.location.key).toBe('factors[0].precision');
+    expect(e.message).toContain('only 3 distinct settings');
+  });
+
+  it('refuses a precision whose rounding merges two levels', () => {
+    // 0–1.9 in 0.5 steps has 4 settings, but the levels 0, 0.63, 1.27, 1.9 round to 0, 0.5, 1.5 and 2 → 1.5
+    // (kept inside the range): the top two merge.
+    const e = inputError(() =>
+      planLevels(withFactor('feed_rate', { low: 0, high: 1.9, nominal: 1, precision: 0.5, levels: 4, limits: undefined }), sampleTiers(), defaults),
+    );
+    expect(e.message).toContain('merges levels 1.5 and 1.5');
+    expect(e.location.key).toBe('factors[2].precision');
+  });
+
+  it('refuses explicit levels that are not settable or are listed twice', () => {
+    expect(inputError(() => planLevels(withFactor('inlet_temp', { levels: [160, 170.5, 200] }), sampleTiers(), defaults)).location.key).toBe(
+      'factors[0].levels',
+    );
+    const twice = inputError(() => planLevels(withFactor('inlet_temp', { levels: [160, 180, 180, 200] }), sampleTiers(), defaults));
+    expect(twice.message).toContain('listed twice');
+    expect(inputError(() => planLevels(withFactor('inlet_temp', { levels: [180] }), sampleTiers(), defaults)).location.key).toBe(
+      'factors[0].levels',
+    );
+    expect(inputError(() => planLevels(withFactor('inlet_temp', { levels: 1 }), sampleTiers(), defaults)).location.key).toBe(
+      'factors[0].levels',
+    );
+  });
+
+  it('refuses explicit levels outside the studied range', () => {
+    const e = inputError(() => planLevels(withFactor('inlet_temp', { levels: [150, 180, 200] }), sampleTiers(), defaults));
+    expect(e.message).toContain('outside the studied range');
+  });
+
+  it('refuses a level outside the equipment limits', () => {
+    const e = inputError(() =>
+      planLevels(withFactor('inlet_temp', { limits: { low: 165, high: 220 } }), sampleTiers(), defaults),
+    );
+    expect(e.location.key).toBe('factors[0].levels');
+    expect(e.message).toContain('refused: outside the rated range');
+    const fixed = inputError(() =>
+      planLevels(withFactor('air_flow', { limits: { low: 300, high: 380 } }), sampleTiers(), defaults),
+    );
+    expect(fixed.message).toContain('refused: outside the rated range');
+  });
+
+  it('refuses an operating factor the tiers do not know', () => {
+    const tiers: TierResult = { ...sampleTiers(), factors: sampleTiers().factors.filter((f) => f.id !== 'feed_rate') };
+    expect(inputError(() => planLevels(sampleFactors(), tiers, defaults)).location.key).toBe('factors[2]');
+  });
+});
