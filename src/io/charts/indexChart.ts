@@ -15,8 +15,8 @@ import type { TierResult } from '../../core/sensitivity/tierTypes.js';
 import { CHART_CONFIG, NEUTRAL, THRESHOLD_STYLE, TIER_STYLE } from './chartPalette.js';
 import { renderVegaSvg } from './vegaSvg.js';
 
-const ROW_HEIGHT = 22;
-const PLOT_WIDTH = 380;
+const ROW_HEIGHT = 19;
+const PLOT_WIDTH = 340;
 
 export async function indexChartSvg(tiers: TierResult): Promise<string> {
   const factors = [...tiers.factors].sort((a, b) => b.aggregatedTotal - a.aggregatedTotal);

@@ -52,8 +52,8 @@ export async function predictionVarianceChartSvg(comparison: Comparison): Promis
   const logarithmic = positive.length === points.length && high / low > 20;
 
   const spec: Spec = {
-    width: 380,
-    height: 220,
+    width: 330,
+    height: 190,
     padding: 5,
     autosize: 'pad',
     config: CHART_CONFIG,

@@ -50,8 +50,8 @@ export async function thresholdSweepChartSvg(tiers: TierResult, axis: SweptThres
     TIERS.map((tier) => SWEEP_SERIES_STYLE[tier][key]);
 
   const spec: Spec = {
-    width: 300,
-    height: 170,
+    width: 250,
+    height: 140,
     padding: { left: 5, top: 20, right: 80, bottom: 5 },
     autosize: 'pad',
     config: CHART_CONFIG,
