@@ -22,6 +22,9 @@ export function parseTerm(text: string, factorIds: readonly string[], key?: stri
   if (trimmed === '') throw new InputError('empty model term', where);
   if (trimmed === '1') return {};
 
+  if (trimmed.includes('**')) {
+    throw new InputError(`model term "${trimmed}": powers are written with ^ (a^2), not **`, where);
+  }
   const powers: Record<string, number> = {};
   for (const rawFactor of trimmed.split('*')) {
     const part = rawFactor.trim();
