@@ -64,8 +64,12 @@ export interface Comparison {
   predictionVarianceMethod: string;
   currency: string | null;
   comparators: ComparatorRow[];
-  /** Fraction-of-design-space curves (Zahran, Anderson-Cook & Myers 2003), per comparator that fits. */
-  fdsCurves: { id: ComparatorId; fraction: number[]; variance: number[] }[];
+  /**
+   * Fraction-of-design-space curves (Zahran, Anderson-Cook & Myers 2003), per comparator that fits.
+   * `variance` is the unscaled prediction variance f'(X'X)⁻¹f in σ² units; the optional
+   * `scaledVariance` is N times it (N = fitting runs), the per-run view.
+   */
+  fdsCurves: { id: ComparatorId; fraction: number[]; variance: number[]; scaledVariance?: number[] }[];
   /** The decision in one or two sentences, for the report. */
   summary: string;
 }

@@ -1,0 +1,209 @@
+/**
+ * The proposed plan side by side with the classical plans, all judged on the proposed plan's
+ * target model, region and centre replicates.
+ *
+ * Data flow: plan document → target model (plan.model.terms over the varied factors) and
+ * region (rebuilt from the study echo) → comparator designs (comparators.ts) → one
+ * evaluation per design (evaluate/designEvaluation.ts) → rows, savings, verdicts, summary.
+ *
+ * Conventions fixed here:
+ * - The proposed plan is judged on its fitting and centre runs (the runs the model is fitted
+ *   to); its holdout runs are counted in `runs`, cost and hours but not in the fit. Every run
+ *   of a comparator is a fitting run.
+ * - Relative information: (det M_this / det M_proposed)^(1/p) with M = X'X / N (per run) or
+ *   X'X (total), the usual D-criterion ratio (Atkinson, Donev & Tobias, 2007, "Optimum
+ *   Experimental Designs, with SAS", §11.1).
+ * - Savings are "comparator minus proposed": positive means the proposed plan is cheaper;
+ *   percentages are of the comparator's figure (19 runs against 11 → 8 runs, 42.1 %).
+ * - Level changes of the proposed plan come from its run schedule when present, otherwise
+ *   from grouped order as for the comparators (campaignCost.ts).
+ */
+import { InputError } from '../inputError.js';
+import type { PlanDocument } from '../plan/planDocument.js';
+import type { CandidateRegion } from '../design/designTypes.js';
+import { compileModel, type CompiledModel } from '../model/modelMatrix.js';
+import { termLabel } from '../model/modelTerm.js';
+import { parseTerm } from '../design/termSyntax.js';
+import { buildCandidateRegion } from '../design/candidateRegion.js';
+import { regionMoments } from '../evaluate/regionMoments.js';
+import { DEFAULT_ALPHA, DEFAULT_DELTA, evaluateDesign, type DesignEvaluation } from '../evaluate/designEvaluation.js';
+import { predictionSample } from '../evaluate/predictionVariance.js';
+import type { ComparatorId, ComparatorRow, Comparison } from './comparisonTypes.js';
+import { buildComparators, type ComparatorDesign } from './comparators.js';
+import { campaignCost, groupedLevelChanges } from './campaignCost.js';
+import { comparatorVerdict, comparisonSummary, proposedVerdict } from './verdict.js';
+
+export interface ComparisonOptions {
+  /** Effect size in σ units for the power figures (default 2). */
+  delta?: number;
+  /** Test level for the power figures (default 0.05). */
+  alpha?: number;
+}
+
+export function buildComparison(plan: PlanDocument, options: ComparisonOptions = {}): Comparison {
+  const delta = options.delta ?? DEFAULT_DELTA;
+  const alpha = options.alpha ?? DEFAULT_ALPHA;
+  if (!(delta > 0) || !Number.isFinite(delta)) throw new InputError(`the effect size must be a positive number of σ, got ${delta}`, { key: 'delta' });
+  if (!(alpha > 0 && alpha < 1)) throw new InputError(`the test level must lie between 0 and 1, got ${alpha}`, { key: 'alpha' });
+
+  const variedLevels = plan.levels.filter((level) => level.varied);
+  const variedIds = variedLevels.map((level) => level.id);
+  const k = variedIds.length;
+  const termPowers = plan.model.terms.map((text, i) => parseTerm(text, variedIds, `model.terms[${i}]`));
+  const modelTerms = termPowers.map((powers) => termLabel({ powers }, variedIds));
+  const model = compileModel([{ powers: {} }, ...termPowers.map((powers) => ({ powers }))], variedIds);
+  const termLabels = ['1', ...modelTerms];
+
+  const region = buildCandidateRegion(plan.study.factors, plan.levels, plan.study.constraints);
+  const moments = regionMoments(model, region, plan.study.design.seed);
+  const sample = predictionSample(k, region);
+  const evaluate = (points: number[][]): DesignEvaluation =>
+    evaluateDesign(model, points, { moments: moments.matrix, region, delta, alpha, termLabels, sample });
+
+  const costs = plan.study.costs;
+  const operating = plan.study.factors.filter((factor) => factor.role === 'operating');
+  const hardToChange = operating.filter((factor) => factor.hardToChange).map((factor) => factor.id);
+  const codedOf = (coded: Record<string, number>): number[] => variedIds.map((id) => coded[id] ?? 0);
+
+  // The proposed plan.
+  const fittingRuns = plan.runs.filter((run) => run.purpose !== 'holdout');
+  const fitPoints = fittingRuns.map((run) => codedOf(run.coded));
+  const holdoutRuns = plan.runs.length - fittingRuns.length;
+  const centreRuns = plan.runs.filter((run) => run.purpose === 'centre').length;
+  const proposedEvaluation = evaluate(fitPoints);
+  const proposedChanges =
+    hardToChange.length === 0
+      ? null
+      : (plan.schedule?.hardToChange?.levelChanges ??
+        groupedLevelChanges(plan.runs.map((run) => codedOf(run.coded)), hardToChange, (id) => variedIds.indexOf(id)));
+  const proposedRow = row('proposed', proposedLabel(fitPoints.length - centreRuns, centreRuns, holdoutRuns), plan.runs.length, proposedEvaluation, proposedChanges);
+  const verdictContext = { currency: costs?.currency ?? null, termCount: modelTerms.length, delta };
+  proposedRow.verdict = proposedVerdict(proposedRow, fitPoints.length, holdoutRuns, verdictContext);
+
+  // The classical plans.
+  const designs = buildComparators({
+    variedIds,
+    operatingIds: operating.map((factor) => factor.id),
+    hardToChange,
+    centreRuns,
+    plannedLevels: variedLevels.map((level) => [...level.coded].sort((a, b) => a - b)),
+    hasInteractions: termPowers.some((powers) => Object.keys(powers).length >= 2),
+    hasSquares: termPowers.some((powers) => Object.values(powers).some((power) => power >= 2)),
+    factors: plan.study.factors,
+    region,
+  });
+  const evaluations = new Map<ComparatorId, DesignEvaluation>([['proposed', proposedEvaluation]]);
+  const rows: ComparatorRow[] = [proposedRow];
+  for (const design of designs) {
+    const evaluation = design.points ? evaluate(design.points) : null;
+    if (evaluation) evaluations.set(design.id, evaluation);
+    const comparatorRow = design.points
+      ? row(design.id, design.label, design.points.length, evaluation, design.levelChanges)
+      : unbuiltRow(design);
+    addRelative(comparatorRow, evaluation, proposedEvaluation, model);
+    addSavings(comparatorRow, proposedRow);
+    if (design.generators) {
+      comparatorRow.generators = design.generators;
+      comparatorRow.resolution = design.resolution;
+      comparatorRow.wordLengthPattern = design.wordLengthPattern;
+    }
+    comparatorRow.verdict = comparatorVerdict(comparatorRow, proposedRow, design.notes, verdictContext);
+    rows.push(comparatorRow);
+  }
+  proposedRow.relativeInformationPerRun = proposedEvaluation.fitsModel ? 1 : null;
+  proposedRow.relativeInformationTotal = proposedEvaluation.fitsModel ? 1 : null;
+  proposedRow.runsSaved = 0;
+  proposedRow.percentRunsSaved = 0;
+  proposedRow.costSaved = proposedRow.cost === null ? null : 0;
+  proposedRow.percentCostSaved = proposedRow.cost === null ? null : 0;
+
+  const fdsCurves: Comparison['fdsCurves'] = [];
+  for (const [id, evaluation] of evaluations) {
+    if (evaluation.fds) {
+      fdsCurves.push({ id, fraction: evaluation.fds.fraction, variance: evaluation.fds.variance, scaledVariance: evaluation.fds.scaledVariance });
+    }
+  }
+
+  const comparison: Omit<Comparison, 'summary'> = {
+    modelTerms,
+    p: model.p,
+    delta,
+    alpha,
+    predictionVarianceMethod: `${moments.method}; trace((X'X)⁻¹W) over the region`,
+    currency: costs?.currency ?? null,
+    comparators: rows,
+    fdsCurves,
+  };
+  return { ...comparison, summary: comparisonSummary(comparison) };
+
+  function row(id: ComparatorId, label: string, runs: number, evaluation: DesignEvaluation | null, levelChanges: number | null): ComparatorRow {
+    const { cost, hours } = campaignCost(runs, levelChanges, costs);
+    return {
+      id,
+      label,
+      runs,
+      fitsModel: evaluation ? evaluation.fitsModel : null,
+      missingTerms: evaluation ? evaluation.nonEstimable.map((term) => term.term) : [],
+      dEfficiency: evaluation?.dEfficiency ?? null,
+      relativeInformationPerRun: null,
+      relativeInformationTotal: null,
+      averagePredictionVariance: evaluation?.iCriterion ?? null,
+      minPower: evaluation?.minPower ?? null,
+      cost,
+      hours,
+      levelChanges,
+      runsSaved: null,
+      percentRunsSaved: null,
+      costSaved: null,
+      percentCostSaved: null,
+      verdict: '',
+    };
+  }
+}
+
+function unbuiltRow(design: ComparatorDesign): ComparatorRow {
+  return {
+    id: design.id,
+    label: design.label,
+    runs: null,
+    reason: design.reason,
+    fitsModel: null,
+    missingTerms: [],
+    dEfficiency: null,
+    relativeInformationPerRun: null,
+    relativeInformationTotal: null,
+    averagePredictionVariance: null,
+    minPower: null,
+    cost: null,
+    hours: null,
+    levelChanges: null,
+    runsSaved: null,
+    percentRunsSaved: null,
+    costSaved: null,
+    percentCostSaved: null,
+    verdict: '',
+  };
+}
+
+function addRelative(target: ComparatorRow, evaluation: DesignEvaluation | null, proposed: DesignEvaluation, model: CompiledModel): void {
+  if (!evaluation || evaluation.logDet === null || evaluation.logDetPerRun === null) return;
+  if (proposed.logDet === null || proposed.logDetPerRun === null) return;
+  target.relativeInformationPerRun = Math.exp((evaluation.logDetPerRun - proposed.logDetPerRun) / model.p);
+  target.relativeInformationTotal = Math.exp((evaluation.logDet - proposed.logDet) / model.p);
+}
+
+/** Savings of the proposed plan against `target` (positive = proposed is smaller/cheaper). */
+export function addSavings(target: ComparatorRow, proposed: Pick<ComparatorRow, 'runs' | 'cost'>): void {
+  if (target.runs !== null && proposed.runs !== null) {
+    target.runsSaved = target.runs - proposed.runs;
+    target.percentRunsSaved = target.runs > 0 ? (100 * target.runsSaved) / target.runs : null;
+  }
+  if (target.cost !== null && proposed.cost !== null) {
+    target.costSaved = target.cost - proposed.cost;
+    target.percentCostSaved = target.cost > 0 ? (100 * target.costSaved) / target.cost : null;
+  }
+}
+
+function proposedLabel(fit: number, centre: number, holdout: number): string {
+  return `Proposed plan: ${fit} model runs + ${centre} centre + ${holdout} holdout`;
+}

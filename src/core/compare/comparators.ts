@@ -1,0 +1,281 @@
+/**
+ * The classical plans the proposed plan is set against, built by the tool itself from
+ * src/core/classical for the same factors, coded ranges and centre replicates.
+ *
+ * Conventions fixed here:
+ * - Every comparator gets the proposed plan's number of centre replicates (coded 0), except
+ *   the full grid, which is the "every setting once" plan and gets none; the central
+ *   composite and Box–Behnken plans receive them through their own centre-run argument.
+ * - All runs of a comparator are fitting runs (it has no holdout runs).
+ * - `conventional` varies every operating factor, negligible ones included; only the
+ *   columns of the varied factors enter the target model. Its feasibility is checked on that
+ *   projection (the other factors' settings are not in the region).
+ * - The fractional factorial is the smallest regular 2^(k−p) fraction of resolution ≥ IV, or
+ *   ≥ V when the model has two-factor interactions (so that they are clear of each other),
+ *   with minimum aberration among those of that size (Fries & Hunter, 1980, "Minimum
+ *   aberration 2^(k−p) designs", Technometrics 22).
+ * - The central composite and Box–Behnken plans are built only when the model has a squared
+ *   term. A plan that cannot be built is returned with `points: null` and the reason.
+ */
+import type { CandidateRegion } from '../design/designTypes.js';
+import type { Factor } from '../study.js';
+import type { ComparatorId } from './comparisonTypes.js';
+import { twoLevelFullFactorial } from '../classical/fullFactorial.js';
+import { minimumAberrationFraction } from '../classical/fractionalFactorial.js';
+import { smallestPlackettBurman } from '../classical/plackettBurman.js';
+import { centralComposite } from '../classical/centralComposite.js';
+import { boxBehnken } from '../classical/boxBehnken.js';
+import { fullGrid } from '../classical/fullGrid.js';
+import { groupedLevelChanges } from './campaignCost.js';
+import { toEngineering } from '../design/levels.js';
+
+/** Largest full factorial over all operating factors that is built point by point. */
+const MAX_CONVENTIONAL_FACTORS = 16;
+/** Largest full grid that is built and evaluated. */
+const MAX_GRID_RUNS = 250_000;
+
+export interface ComparatorContext {
+  /** Varied (design) factor ids, in coordinate order. */
+  variedIds: string[];
+  /** Every operating factor id, in study order. */
+  operatingIds: string[];
+  /** Operating factors the study marks hard to change. */
+  hardToChange: string[];
+  centreRuns: number;
+  /** Planned coded levels of each varied factor. */
+  plannedLevels: number[][];
+  hasInteractions: boolean;
+  hasSquares: boolean;
+  factors: Factor[];
+  region?: CandidateRegion;
+}
+
+export interface ComparatorDesign {
+  id: ComparatorId;
+  label: string;
+  /** Every run, coded, one coordinate per varied factor; null when the plan cannot be built. */
+  points: number[][] | null;
+  reason?: string;
+  levelChanges: number | null;
+  generators?: string[];
+  resolution?: number;
+  wordLengthPattern?: number[];
+  /** Facts the verdict must mention: runs outside the study range, beyond limits, breaking constraints. */
+  notes: string[];
+}
+
+export function buildComparators(context: ComparatorContext): ComparatorDesign[] {
+  const designs: ComparatorDesign[] = [
+    conventional(context),
+    fullFactorial(context),
+    fractional(context),
+    plackettBurman(context),
+    grid(context),
+  ];
+  if (context.hasSquares) designs.push(...responseSurfacePlans(context));
+  return designs;
+}
+
+function centreText(c: number): string {
+  return c === 0 ? 'no centre runs' : `${c} centre run${c === 1 ? '' : 's'}`;
+}
+
+function withCentres(points: number[][], k: number, c: number): number[][] {
+  return [...points, ...Array.from({ length: c }, () => new Array<number>(k).fill(0))];
+}
+
+function variedColumn(context: ComparatorContext): (id: string) => number {
+  return (id) => context.variedIds.indexOf(id);
+}
+
+function finish(context: ComparatorContext, design: Omit<ComparatorDesign, 'levelChanges' | 'notes'>, notes: string[] = []): ComparatorDesign {
+  const points = design.points;
+  const levelChanges =
+    points && context.hardToChange.length > 0 ? groupedLevelChanges(points, context.hardToChange, variedColumn(context)) : null;
+  return { ...design, levelChanges, notes: points ? [...notes, ...feasibilityNotes(context, points)] : notes };
+}
+
+function conventional(context: ComparatorContext): ComparatorDesign {
+  const K = context.operatingIds.length;
+  const k = context.variedIds.length;
+  const c = context.centreRuns;
+  const label = `Two-level full factorial over all ${K} operating factors + ${centreText(c)}`;
+  if (K > MAX_CONVENTIONAL_FACTORS) {
+    return {
+      id: 'conventional',
+      label,
+      points: null,
+      reason: `2^${K} = ${2 ** K} runs is too large to build and evaluate`,
+      levelChanges: null,
+      notes: [],
+    };
+  }
+  const all = withCentres(twoLevelFullFactorial(K), K, c);
+  const columns = context.variedIds.map((id) => context.operatingIds.indexOf(id));
+  const points = all.map((x) => columns.map((j) => x[j]));
+  const levelChanges =
+    context.hardToChange.length > 0 ? groupedLevelChanges(all, context.hardToChange, (id) => context.operatingIds.indexOf(id)) : null;
+  const extra = K - k;
+  const notes = extra > 0 ? [`varies ${extra} factor${extra === 1 ? '' : 's'} the model does not need`] : [];
+  return { id: 'conventional', label, points, levelChanges, notes: [...notes, ...feasibilityNotes(context, points)] };
+}
+
+function fullFactorial(context: ComparatorContext): ComparatorDesign {
+  const k = context.variedIds.length;
+  const c = context.centreRuns;
+  return finish(context, {
+    id: 'full-factorial',
+    label: `Two-level full factorial over the ${k} varied factors + ${centreText(c)}`,
+    points: withCentres(twoLevelFullFactorial(k), k, c),
+  });
+}
+
+function fractional(context: ComparatorContext): ComparatorDesign {
+  const k = context.variedIds.length;
+  const c = context.centreRuns;
+  const minResolution = context.hasInteractions ? 5 : 4;
+  const roman = minResolution === 5 ? 'V' : 'IV';
+  const fraction = minimumAberrationFraction(k, minResolution);
+  if (!fraction) {
+    return {
+      id: 'fractional',
+      label: `Regular two-level fraction of resolution ${roman} or higher + ${centreText(c)}`,
+      points: null,
+      reason: `no regular fraction of ${k} factors reaches resolution ${roman}`,
+      levelChanges: null,
+      notes: [],
+    };
+  }
+  const label =
+    fraction.p === 0
+      ? `No smaller regular fraction of ${k} factors reaches resolution ${roman}: the full 2^${k} + ${centreText(c)}`
+      : `2^(${k}−${fraction.p}) fraction, resolution ${romanNumeral(fraction.resolution)} (${fraction.generators.join(', ')}) + ${centreText(c)}`;
+  return finish(context, {
+    id: 'fractional',
+    label,
+    points: withCentres(fraction.points, k, c),
+    generators: fraction.generators,
+    resolution: fraction.resolution,
+    wordLengthPattern: fraction.wordLengthPattern,
+  });
+}
+
+function plackettBurman(context: ComparatorContext): ComparatorDesign {
+  const k = context.variedIds.length;
+  const c = context.centreRuns;
+  const screening = smallestPlackettBurman(k);
+  if (!screening) {
+    return {
+      id: 'plackett-burman',
+      label: `Plackett–Burman screening plan + ${centreText(c)}`,
+      points: null,
+      reason: `no Plackett–Burman plan of 12, 20 or 24 runs takes ${k} factors`,
+      levelChanges: null,
+      notes: [],
+    };
+  }
+  return finish(context, {
+    id: 'plackett-burman',
+    label: `Plackett–Burman screening plan, ${screening.runs} runs + ${centreText(c)}`,
+    points: withCentres(screening.points, k, c),
+  });
+}
+
+function grid(context: ComparatorContext): ComparatorDesign {
+  const counts = context.plannedLevels.map((levels) => levels.length);
+  const size = counts.reduce((a, b) => a * b, 1);
+  const shape = counts.join('×');
+  if (size > MAX_GRID_RUNS) {
+    return {
+      id: 'full-grid',
+      label: `Every combination of the planned levels (${shape})`,
+      points: null,
+      reason: `${size} combinations is too large to build and evaluate`,
+      levelChanges: null,
+      notes: [],
+    };
+  }
+  const all = fullGrid(context.plannedLevels);
+  const region = context.region;
+  const points = region ? all.filter((x) => region.isFeasible(x)) : all;
+  const dropped = all.length - points.length;
+  const constraintText = region
+    ? dropped > 0
+      ? `constraints applied (${dropped} of ${all.length} combinations excluded)`
+      : 'constraints applied (none excluded)'
+    : 'constraints ignored';
+  return finish(context, {
+    id: 'full-grid',
+    label: `Every combination of the planned levels (${shape}), ${constraintText}, no extra centre runs`,
+    points,
+  });
+}
+
+function responseSurfacePlans(context: ComparatorContext): ComparatorDesign[] {
+  const k = context.variedIds.length;
+  const c = context.centreRuns;
+  const face = centralComposite(k, 'face', c);
+  const rotatable = centralComposite(k, 'rotatable', c);
+  const alphaText = rotatable.alpha.toFixed(3).replace(/0+$/, '');
+  const designs: ComparatorDesign[] = [
+    finish(context, { id: 'ccd-face', label: `Face-centred central composite + ${centreText(c)}`, points: face.points }),
+    finish(
+      context,
+      {
+        id: 'ccd-rotatable',
+        label: `Rotatable central composite (axial distance ${alphaText} coded) + ${centreText(c)}`,
+        points: rotatable.points,
+      },
+      axialNotes(context, rotatable.alpha),
+    ),
+  ];
+  const bbd = boxBehnken(k, c);
+  if (bbd.points === null) {
+    designs.push({
+      id: 'box-behnken',
+      label: 'Box–Behnken',
+      points: null,
+      reason: 'reason' in bbd ? bbd.reason : `no Box–Behnken plan for ${k} factors`,
+      levelChanges: null,
+      notes: [],
+    });
+  } else {
+    designs.push(finish(context, { id: 'box-behnken', label: `Box–Behnken + ${centreText(c)}`, points: bbd.points }));
+  }
+  return designs;
+}
+
+/** Axial points at ±α lie outside the studied range; say whether they also pass the equipment limits. */
+function axialNotes(context: ComparatorContext, alpha: number): string[] {
+  if (alpha <= 1 + 1e-12) return [];
+  const beyond: string[] = [];
+  for (const id of context.variedIds) {
+    const factor = context.factors.find((f) => f.id === id);
+    if (!factor?.limits) continue;
+    const low = toEngineering(factor, -alpha);
+    const high = toEngineering(factor, alpha);
+    if (low < factor.limits.low || high > factor.limits.high) {
+      beyond.push(`${id} (${round(low)}–${round(high)} ${factor.unit} against limits ${factor.limits.low}–${factor.limits.high})`);
+    }
+  }
+  const notes = [`its axial runs lie outside the studied range (±${round(alpha)} coded)`];
+  if (beyond.length > 0) notes.push(`axial settings beyond the equipment limits of ${beyond.join(', ')}`);
+  return notes;
+}
+
+/** Runs outside equipment limits or constraints of the region. */
+function feasibilityNotes(context: ComparatorContext, points: number[][]): string[] {
+  const region = context.region;
+  if (!region) return [];
+  const infeasible = points.filter((x) => !region.isFeasible(x)).length;
+  if (infeasible === 0) return [];
+  return [`${infeasible} of its ${points.length} runs break the study's constraints or equipment limits and cannot be run as listed`];
+}
+
+function romanNumeral(resolution: number): string {
+  return ['', 'I', 'II', 'III', 'IV', 'V', 'VI', 'VII', 'VIII', 'IX', 'X'][resolution] ?? String(resolution);
+}
+
+function round(value: number): string {
+  return String(Number(value.toPrecision(4)));
+}

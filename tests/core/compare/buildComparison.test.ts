@@ -1,0 +1,187 @@
+// Comparator construction and the comparison rows on hand-made plan documents
+// (comparisonPlanFixture.ts). Counts are worked by hand from the design definitions named
+// beside each check.
+import { describe, expect, it } from 'vitest';
+import { buildComparison } from '../../../src/core/compare/buildComparison.js';
+import type { ComparatorId, ComparatorRow } from '../../../src/core/compare/comparisonTypes.js';
+import { dEfficiency } from '../../../src/core/evaluate/designCriteria.js';
+import { compileModel } from '../../../src/core/model/modelMatrix.js';
+import { operatingFactor, planFixture } from './comparisonPlanFixture.js';
+
+const faceCentred3 = [
+  [-1, -1, -1], [1, -1, -1], [-1, 1, -1], [1, 1, -1], [-1, -1, 1], [1, -1, 1], [-1, 1, 1], [1, 1, 1],
+  [-1, 0, 0], [1, 0, 0], [0, -1, 0], [0, 1, 0], [0, 0, -1], [0, 0, 1],
+];
+const quadratic3 = ['a', 'b', 'c', 'a*b', 'a*c', 'b*c', 'a^2', 'b^2', 'c^2'];
+
+const quadraticPlan = planFixture({
+  factors: [
+    operatingFactor('a', 100, 200, { limits: { low: 60, high: 240 }, hardToChange: true }),
+    operatingFactor('b', 10, 20, { limits: { low: 8, high: 22 } }),
+    operatingFactor('c', 0, 1),
+    operatingFactor('d', 5, 15),
+  ],
+  varied: { a: [-1, 0, 1], b: [-1, 0, 1], c: [-1, 0, 1] },
+  terms: quadratic3,
+  fit: faceCentred3,
+  centre: 2,
+  holdout: [[0.5, 0.5, -0.5], [-0.5, 0, 0.5]],
+  costs: { currency: 'EUR', perRun: 100, hoursPerRun: 2, perLevelChange: { cost: 50, hours: 1 } },
+});
+const comparison = buildComparison(quadraticPlan);
+const rowOf = (id: ComparatorId): ComparatorRow => comparison.comparators.find((r) => r.id === id)!;
+
+describe('buildComparison: 3 varied factors, quadratic model, 1 fixed factor', () => {
+  it('lists every comparator id once, proposed first', () => {
+    expect(comparison.comparators.map((r) => r.id)).toEqual([
+      'proposed', 'conventional', 'full-factorial', 'fractional', 'plackett-burman', 'full-grid', 'ccd-face', 'ccd-rotatable', 'box-behnken',
+    ]);
+    expect(comparison.p).toBe(10);
+    expect(comparison.modelTerms).toEqual(quadratic3);
+  });
+
+  it('counts runs as the design definitions give them (+2 centre runs each, grid without)', () => {
+    expect(rowOf('proposed').runs).toBe(18); // 14 fit + 2 centre + 2 holdout
+    expect(rowOf('conventional').runs).toBe(18); // 2^4 over a, b, c, d + 2
+    expect(rowOf('full-factorial').runs).toBe(10); // 2^3 + 2
+    expect(rowOf('fractional').runs).toBe(10); // no resolution-V fraction of 3 factors: the full 2^3 + 2
+    expect(rowOf('plackett-burman').runs).toBe(14); // 12-run Plackett–Burman + 2
+    expect(rowOf('full-grid').runs).toBe(27); // 3 × 3 × 3
+    expect(rowOf('ccd-face').runs).toBe(16); // 8 + 6 axial + 2
+    expect(rowOf('ccd-rotatable').runs).toBe(16);
+    expect(rowOf('box-behnken').runs).toBe(14); // 12 edge midpoints + 2 (Box & Behnken 1960)
+  });
+
+  it('two-level plans with centre runs cannot estimate the squared terms separately (common practice)', () => {
+    for (const id of ['conventional', 'full-factorial', 'plackett-burman'] as const) {
+      expect(rowOf(id).fitsModel).toBe(false);
+      expect(rowOf(id).missingTerms).toEqual(expect.arrayContaining(['b^2', 'c^2']));
+      expect(rowOf(id).dEfficiency).toBeNull();
+    }
+    expect(rowOf('conventional').verdict).toMatch(/^Cannot estimate the squared terms of b and c; as many runs as the proposed plan/);
+    expect(rowOf('conventional').verdict).toMatch(/Varies 1 factor the model does not need/);
+  });
+
+  it('judges the proposed plan on its fitting and centre runs only', () => {
+    // The face-centred composite row has the same fitting points as the proposed plan.
+    const face = rowOf('ccd-face');
+    expect(face.fitsModel).toBe(true);
+    expect(face.relativeInformationTotal).toBeCloseTo(1, 12);
+    expect(face.dEfficiency).toBeCloseTo(rowOf('proposed').dEfficiency!, 12);
+    expect(face.runsSaved).toBe(-2);
+    // Cross-check with the search engineer's criterion module on the same 16 points.
+    const model = compileModel([{ powers: {} }, ...[{ a: 1 }, { b: 1 }, { c: 1 }, { a: 1, b: 1 }, { a: 1, c: 1 }, { b: 1, c: 1 }, { a: 2 }, { b: 2 }, { c: 2 }].map((powers) => ({ powers }))], ['a', 'b', 'c']);
+    expect(rowOf('proposed').dEfficiency).toBeCloseTo(dEfficiency(model, [...faceCentred3, [0, 0, 0], [0, 0, 0]]), 10);
+  });
+
+  it('costs runs and grouped level changes of the hard-to-change factor', () => {
+    const proposed = rowOf('proposed');
+    // a takes −1, −0.5, 0, 0.5, 1 over the 18 runs: 5 settings, 4 changes.
+    expect(proposed.levelChanges).toBe(4);
+    expect(proposed.cost).toBe(18 * 100 + 4 * 50);
+    expect(proposed.hours).toBe(18 * 2 + 4 * 1);
+    const conventional = rowOf('conventional');
+    expect(conventional.levelChanges).toBe(2); // −1, 0, +1
+    expect(conventional.cost).toBe(18 * 100 + 2 * 50);
+    expect(conventional.costSaved).toBe(1900 - 2000);
+    expect(rowOf('full-grid').levelChanges).toBe(2);
+  });
+
+  it('notes that rotatable axial runs leave the studied range and pass the equipment limits of b', () => {
+    const rotatable = rowOf('ccd-rotatable');
+    expect(rotatable.label).toContain('1.682');
+    expect(rotatable.verdict).toMatch(/outside the studied range/);
+    expect(rotatable.verdict).toMatch(/beyond the equipment limits of b \(6\.591–23\.41 u against limits 8–22\)/);
+    expect(rotatable.verdict).not.toMatch(/limits of a/);
+  });
+
+  it('the fractional row carries generators, resolution and word-length pattern', () => {
+    const fractional = rowOf('fractional');
+    expect(fractional.generators).toEqual([]);
+    expect(fractional.resolution).toBe(4); // full factorial sentinel k + 1
+    expect(fractional.label).toMatch(/No smaller regular fraction of 3 factors reaches resolution V/);
+  });
+
+  it('gives FDS curves for every row that fits, and the proposed row a verdict and a summary', () => {
+    const fitting = comparison.comparators.filter((r) => r.fitsModel).map((r) => r.id);
+    expect(comparison.fdsCurves.map((c) => c.id).sort()).toEqual([...fitting].sort());
+    for (const curve of comparison.fdsCurves) {
+      for (let i = 1; i < curve.variance.length; i++) expect(curve.variance[i]).toBeGreaterThanOrEqual(curve.variance[i - 1]);
+    }
+    expect(rowOf('proposed').verdict).toMatch(/^Estimates all 9 model terms from 16 fitting runs, plus 2 holdout runs/);
+    expect(comparison.summary).toMatch(/^The proposed plan needs 18 runs where the conventional full factorial needs 18: as many runs, costing EUR 100 more\./);
+    expect(comparison.summary).toMatch(/cannot estimate the squared terms of b and c/);
+  });
+});
+
+describe('buildComparison: 5 two-level factors, main effects and one interaction', () => {
+  const ids = ['a', 'b', 'c', 'd', 'e'];
+  const corners: number[][] = [];
+  for (let code = 0; code < 8; code++) corners.push([(code & 1 ? 1 : -1), (code & 2 ? 1 : -1), (code & 4 ? 1 : -1), 1, (code & 1 ? 1 : -1) * (code & 2 ? 1 : -1)]);
+  const plan = planFixture({
+    factors: ids.map((id) => operatingFactor(id, 0, 10)),
+    varied: Object.fromEntries(ids.map((id) => [id, [-1, 1]])),
+    terms: ['a', 'b', 'c', 'd', 'e', 'a*b'],
+    fit: [...corners, ...corners.map((x) => x.map((v, j) => (j === 3 ? -1 : v)))],
+    centre: 1,
+    holdout: [],
+  });
+  const result = buildComparison(plan);
+  const row = (id: ComparatorId) => result.comparators.find((r) => r.id === id)!;
+
+  it('builds the 2^(5−1) resolution V fraction E = ABCD (Montgomery 2017, Table 8.14)', () => {
+    const fractional = row('fractional');
+    expect(fractional.runs).toBe(17);
+    expect(fractional.resolution).toBe(5);
+    expect(fractional.generators).toHaveLength(1);
+    expect(fractional.generators![0]).toMatch(/^E=-?ABCD$/);
+    expect(fractional.wordLengthPattern).toEqual([0, 0, 1]);
+    expect(fractional.fitsModel).toBe(true);
+    expect(fractional.label).toMatch(/2\^\(5−1\) fraction, resolution V/);
+  });
+
+  it('omits the response-surface plans for a model without squared terms', () => {
+    expect(result.comparators.map((r) => r.id)).not.toContain('ccd-face');
+    expect(result.comparators.map((r) => r.id)).not.toContain('box-behnken');
+    expect(row('plackett-burman').runs).toBe(13);
+    expect(row('conventional').runs).toBe(33);
+    expect(row('full-grid').runs).toBe(32);
+  });
+
+  it('leaves cost null without study costs', () => {
+    expect(row('proposed').cost).toBeNull();
+    expect(result.currency).toBeNull();
+  });
+});
+
+describe('buildComparison: 2 varied factors with a constraint', () => {
+  const plan = planFixture({
+    factors: [operatingFactor('p', 0, 10), operatingFactor('q', 0, 10)],
+    varied: { p: [-1, 0, 1], q: [-1, 0, 1] },
+    terms: ['p', 'q', 'p*q', 'p^2', 'q^2'],
+    fit: [[-1, -1], [0, -1], [1, -1], [-1, 0], [1, 0], [-1, 1], [0, 1]],
+    centre: 2,
+    holdout: [[0.5, -0.5]],
+    constraints: ['p + q <= 15'],
+  });
+  const result = buildComparison(plan);
+  const row = (id: ComparatorId) => result.comparators.find((r) => r.id === id)!;
+
+  it('lists Box–Behnken with no runs and the reason instead of dropping it', () => {
+    const bbd = row('box-behnken');
+    expect(bbd.runs).toBeNull();
+    expect(bbd.reason).toMatch(/at least 3 factors/);
+    expect(bbd.verdict).toMatch(/^Not built: /);
+  });
+
+  it('applies the constraint to the full grid and flags comparator runs that break it', () => {
+    expect(row('full-grid').runs).toBe(8); // (10, 10) is excluded
+    expect(row('full-grid').label).toMatch(/constraints applied \(1 of 9 combinations excluded\)/);
+    expect(row('full-factorial').verdict).toMatch(/1 of its 6 runs break the study's constraints/);
+  });
+
+  it('uses constrained-region moments for the average prediction variance', () => {
+    expect(result.predictionVarianceMethod).not.toMatch(/uncut box/);
+    expect(row('proposed').averagePredictionVariance).toBeGreaterThan(0);
+  });
+});
