@@ -100,6 +100,9 @@ export function fileSystemProblem(error: unknown): string {
 
 /** Decodes UTF-8 text, dropping a byte-order mark and refusing UTF-16 and workbooks in disguise. */
 export function decodeUtf8Text(bytes: Uint8Array, file: string): string {
+  if (bytes[0] === 0x50 && bytes[1] === 0x4b && bytes[2] === 0x03 && bytes[3] === 0x04) {
+    throw new InputError('is a zipped workbook, not text; give it the .xlsx extension or export it as CSV', { file });
+  }
   const utf16Bom = (bytes[0] === 0xff && bytes[1] === 0xfe) || (bytes[0] === 0xfe && bytes[1] === 0xff);
   const nulByte = bytes.subarray(0, 512).includes(0);
   if (utf16Bom || nulByte) {
@@ -107,9 +110,6 @@ export function decodeUtf8Text(bytes: Uint8Array, file: string): string {
       'is UTF-16 encoded (a "Unicode text" export); tierplan reads UTF-8 only — save it again as "CSV UTF-8" or plain comma-separated CSV',
       { file },
     );
-  }
-  if (bytes[0] === 0x50 && bytes[1] === 0x4b && bytes[2] === 0x03 && bytes[3] === 0x04) {
-    throw new InputError('is a zipped workbook, not text; give it the .xlsx extension or export it as CSV', { file });
   }
   const start = bytes[0] === 0xef && bytes[1] === 0xbb && bytes[2] === 0xbf ? 3 : 0;
   return new TextDecoder('utf-8').decode(bytes.subarray(start));

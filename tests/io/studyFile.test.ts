@@ -7,6 +7,7 @@ import { join, relative } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { loadStudy } from '../../src/io/studyFile.js';
 import { DEFAULT_DESIGN, DEFAULT_POLICY } from '../../src/core/study.js';
+import { InputError } from '../../src/core/inputError.js';
 import { baseStudy, BASE_INDEX_ROWS, expectInputError, writeFiles, writeStudy, BASE_INDICES_CSV, BASE_INTERACTIONS_CSV } from './studyScratch.js';
 
 describe('the bundled spray-dryer sample', () => {
@@ -188,8 +189,9 @@ describe('the study file itself', () => {
 
   it('refuses invalid JSON', async () => {
     const folder = writeFiles({ 'study.json': '{"title": }' });
-    const error = await loadStudy(join(folder, 'study.json')).catch((caught: Error) => caught);
-    expect((error as { describe(): string }).describe()).toMatch(new RegExp(`^${folder}/study.json: is not valid JSON \\(`));
+    const error: unknown = await loadStudy(join(folder, 'study.json')).catch((caught: unknown) => caught);
+    expect(error).toBeInstanceOf(InputError);
+    expect((error as InputError).describe()).toMatch(new RegExp(`^${folder}/study.json: is not valid JSON \\(`));
   });
 });
 
