@@ -70,7 +70,7 @@ describe('buildComparison: 3 varied factors, quadratic model, 1 fixed factor', (
     expect(face.dEfficiency).toBeCloseTo(rowOf('proposed').dEfficiency!, 12);
     expect(face.runsSaved).toBe(-2);
     // Cross-check with the search engineer's criterion module on the same 16 points.
-    const model = compileModel([{ powers: {} }, ...[{ a: 1 }, { b: 1 }, { c: 1 }, { a: 1, b: 1 }, { a: 1, c: 1 }, { b: 1, c: 1 }, { a: 2 }, { b: 2 }, { c: 2 }].map((powers) => ({ powers }))], ['a', 'b', 'c']);
+    const model = compileModel([{ powers: {} }, ...([{ a: 1 }, { b: 1 }, { c: 1 }, { a: 1, b: 1 }, { a: 1, c: 1 }, { b: 1, c: 1 }, { a: 2 }, { b: 2 }, { c: 2 }] as Record<string, number>[]).map((powers) => ({ powers }))], ['a', 'b', 'c']);
     expect(rowOf('proposed').dEfficiency).toBeCloseTo(dEfficiency(model, [...faceCentred3, [0, 0, 0], [0, 0, 0]]), 10);
   });
 
