@@ -13,6 +13,9 @@
  * interval of the aggregate when the per-response errors move together — the cautious
  * reading, since it never makes an interval narrower than its parts suggest. If any row
  * lacks a bound, the aggregated bound is null.
+ * Aggregates are rounded to 12 significant digits, which drops floating-point summation
+ * noise (0.36500000000000005 → 0.365) and nothing else: no Sobol' estimate is known to
+ * more than a few digits.
  */
 import type { AggregateRule, IndexRow, Response } from '../study.js';
 import { InputError } from '../inputError.js';
@@ -24,8 +27,18 @@ export interface AggregatedIndices {
   totalHigh: number | null;
 }
 
+const SIGNIFICANT_DIGITS = 12;
+
+export function dropRoundingNoise(value: number): number {
+  return value === 0 ? 0 : Number(value.toPrecision(SIGNIFICANT_DIGITS));
+}
+
 /** Aggregates `values` (with matching `weights`) by `rule`; an empty list gives 0. */
 export function aggregateValues(values: readonly number[], weights: readonly number[], rule: AggregateRule): number {
+  return dropRoundingNoise(aggregateExactly(values, weights, rule));
+}
+
+function aggregateExactly(values: readonly number[], weights: readonly number[], rule: AggregateRule): number {
   if (values.length === 0) return 0;
   if (rule === 'max') return Math.max(...values);
   if (rule === 'mean') return values.reduce((sum, value) => sum + value, 0) / values.length;

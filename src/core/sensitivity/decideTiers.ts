@@ -16,7 +16,7 @@
  */
 import type { Study } from '../study.js';
 import type { FactorTier, TierResult } from './tierTypes.js';
-import { aggregateIndices } from './aggregateIndices.js';
+import { aggregateIndices, dropRoundingNoise } from './aggregateIndices.js';
 import { checkTierPolicy, isBorderline, tierMargin, tierOf, tierStableRange } from './tierRules.js';
 import { interactionPairs } from './interactionPairs.js';
 import { calibrationList } from './calibrationList.js';
@@ -63,7 +63,7 @@ export function decideTiers(input: TierInput): TierResult {
       decidedOn,
       tier: tierOf(decidedOn, policy.critical, policy.moderate),
       borderline: isBorderline(aggregated.totalLow, aggregated.totalHigh, policy.critical, policy.moderate),
-      interactionShare: Math.max(0, aggregated.total - aggregated.first),
+      interactionShare: dropRoundingNoise(Math.max(0, aggregated.total - aggregated.first)),
       perResponse: rows.map((row) => ({
         response: row.response,
         first: row.first,
@@ -72,7 +72,7 @@ export function decideTiers(input: TierInput): TierResult {
         ...(row.totalHigh !== undefined ? { totalHigh: row.totalHigh } : {}),
       })),
       decisionBasis,
-      margin: tierMargin(decidedOn, policy.critical, policy.moderate),
+      margin: dropRoundingNoise(tierMargin(decidedOn, policy.critical, policy.moderate)),
       tierStable: tierStableRange(decidedOn, policy.critical, policy.moderate),
     };
   });

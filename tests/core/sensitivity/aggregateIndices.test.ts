@@ -12,6 +12,13 @@ describe('aggregateValues', () => {
     expect(aggregateValues([0.1, 0.5, 0.3], [2, 1, 1], 'weighted')).toBeCloseTo(0.25, 12);
   });
 
+  it('drops floating-point summation noise (12 significant digits)', () => {
+    // 1.46 / 4 is 0.36500000000000005 in doubles
+    expect((0.46 + 0.38 + 0.52 + 0.1) / 4).not.toBe(0.365);
+    expect(aggregateValues([0.46, 0.38, 0.52, 0.1], [1, 1, 1, 1], 'mean')).toBe(0.365);
+    expect(aggregateValues([0.01, 0.09], [1, 1], 'mean')).toBe(0.05);
+  });
+
   it('an empty list aggregates to 0', () => {
     expect(aggregateValues([], [], 'mean')).toBe(0);
     expect(aggregateValues([], [], 'max')).toBe(0);
