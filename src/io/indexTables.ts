@@ -74,7 +74,10 @@ export interface InteractionTable {
 /** Reads the first-order / total table at `path`; messages name `file`. */
 export async function readIndexTable(path: string, file: string, ids: StudyIds): Promise<IndexTable> {
   const table = await readTableRows(path, file, ['indices']);
+  // A JSON table's columns come from its rows, so an empty one has no header to check.
+  if (table.format === 'json') requireDataRows(table, '');
   const columns = mapColumns(table, INDEX_COLUMN_ALIASES, ['factor', 'response', 'first', 'total']);
+  requireDataRows(table, '');
   const warnings: string[] = [];
   const clipped: { count: number; first?: InputLocation } = { count: 0 };
   const seen = new Map<string, TableRow>();
@@ -130,7 +133,6 @@ export async function readIndexTable(path: string, file: string, ids: StudyIds):
     rows.push(indexRow);
   }
 
-  if (rows.length === 0) throw new InputError('has a header but no data rows', { file });
   requireEveryPair(file, ids, seen);
   if (clipped.count > 0 && clipped.first) {
     warnings.push(
@@ -159,7 +161,10 @@ export async function readInteractionTable(
   indices: readonly IndexRow[],
 ): Promise<InteractionTable> {
   const table = await readTableRows(path, file, ['interactions']);
+  // A JSON table's columns come from its rows, so an empty one has no header to check.
+  if (table.format === 'json') requireDataRows(table, '; remove the `interactions` key from the study file if there are none');
   const columns = mapColumns(table, INTERACTION_COLUMN_ALIASES, ['factor_a', 'factor_b', 'response', 'index']);
+  requireDataRows(table, '; remove the `interactions` key from the study file if there are none');
   const warnings: string[] = [];
   const seen = new Map<string, TableRow>();
   const rows: InteractionRow[] = [];
@@ -196,9 +201,6 @@ export async function readInteractionTable(
       );
     }
     rows.push({ factorA, factorB, response, index });
-  }
-  if (rows.length === 0) {
-    throw new InputError('has a header but no data rows; remove the `interactions` key from the study file if there are none', { file });
   }
   return { rows, warnings };
 }
@@ -334,6 +336,12 @@ function requireEveryPair(file: string, ids: StudyIds, seen: ReadonlyMap<string,
     `no row for factor × response ${missing[0]}${more}; every factor in the study, operating or model, needs one row per response`,
     { file },
   );
+}
+
+function requireDataRows(table: TableRows, advice: string): void {
+  if (table.rows.length > 0) return;
+  const problem = table.format === 'json' ? 'holds no rows' : 'has a header but no data rows';
+  throw new InputError(`${problem}${advice}`, { file: table.file });
 }
 
 function describeRow(table: TableRows, row: TableRow): string {

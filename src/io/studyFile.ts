@@ -155,7 +155,7 @@ export async function loadStudy(path: string): Promise<Study> {
   const document = await readStudyDocument(path);
   const parsed = studySchema.safeParse(document, { reportInput: true });
   if (!parsed.success) throw issueToError(parsed.error.issues, path);
-  const study = checkStudyRules(parsed.data, path);
+  const { study, warnings: studyWarnings } = checkStudyRules(parsed.data, path);
 
   const folder = dirname(resolve(path));
   const shown = (written: string): string => (isAbsolute(written) ? written : join(dirname(path), written));
@@ -175,7 +175,7 @@ export async function loadStudy(path: string): Promise<Study> {
       indicesFile: parsed.data.indices,
       ...(parsed.data.interactions !== undefined ? { interactionsFile: parsed.data.interactions } : {}),
     },
-    warnings: [...indexTable.warnings, ...interactionTable.warnings],
+    warnings: [...studyWarnings, ...indexTable.warnings, ...interactionTable.warnings],
   };
 }
 
@@ -286,7 +286,8 @@ function issueMessage(issue: z.core.$ZodIssue): string {
 
 type CheckedStudy = Omit<Study, 'indices' | 'interactions' | 'source' | 'warnings'>;
 
-function checkStudyRules(data: StudyDocument, file: string): CheckedStudy {
+function checkStudyRules(data: StudyDocument, file: string): { study: CheckedStudy; warnings: string[] } {
+  const warnings: string[] = [];
   const fail = (key: string, message: string): never => {
     throw new InputError(message, { file, key });
   };
@@ -329,6 +330,14 @@ function checkStudyRules(data: StudyDocument, file: string): CheckedStudy {
     if (raw.limits !== undefined) factor.limits = { low: raw.limits.low, high: raw.limits.high };
     if (raw.levels !== undefined) factor.levels = Array.isArray(raw.levels) ? [...raw.levels] : raw.levels;
     if (raw.hardToChange !== undefined) factor.hardToChange = raw.hardToChange;
+    if (raw.role === 'model') {
+      // Only operating settings are run in the lab, so these keys cannot act on a model parameter.
+      for (const key of ['limits', 'levels', 'hardToChange'] as const) {
+        if (raw[key] !== undefined) {
+          warnings.push(new InputError(`has no effect on a model parameter (only operating settings are set in the lab)`, { file, key: `${at}.${key}` }).describe());
+        }
+      }
+    }
     return factor;
   });
   if (!factors.some((factor) => factor.role === 'operating')) {
@@ -383,7 +392,7 @@ function checkStudyRules(data: StudyDocument, file: string): CheckedStudy {
     if (data.costs.perLevelChange) costs.perLevelChange = { ...data.costs.perLevelChange };
     result.costs = costs;
   }
-  return result;
+  return { study: result, warnings };
 }
 
 /** The object without keys whose value is undefined, so spreading it keeps the defaults. */

@@ -162,6 +162,7 @@ describe('file-level problems', () => {
   });
   it('a header-only table', () =>
     expectCsvError(BASE_INDICES_CSV.split('\n').slice(0, 2).join('\n'), 'indices.csv: has a header but no data rows'));
+  it('an empty JSON list', () => expectCsvError('[]', 'indices.json: holds no rows', 'indices.json'));
   it('an unsupported extension', () =>
     expectCsvError(BASE_INDICES_CSV, 'indices.xls: unsupported table type ".xls"; use .csv, .xlsx or .json; save the workbook as .xlsx', 'indices.xls'));
   it('UTF-16 text is refused with an explanation', () =>

@@ -374,3 +374,18 @@ describe('table errors reach the caller through loadStudy', () => {
     );
   });
 });
+
+describe('study-level warnings', () => {
+  it('keys that cannot act on a model parameter are reported, not refused', async () => {
+    const { studyPath } = writeStudy((study) => {
+      study.factors[2].hardToChange = true;
+      study.factors[2].levels = 3;
+    });
+    const study = await loadStudy(studyPath);
+    expect(study.factors[2].hardToChange).toBe(true);
+    expect(study.warnings).toEqual([
+      `${studyPath}, key factors[2].levels: has no effect on a model parameter (only operating settings are set in the lab)`,
+      `${studyPath}, key factors[2].hardToChange: has no effect on a model parameter (only operating settings are set in the lab)`,
+    ]);
+  });
+});
