@@ -25,10 +25,15 @@ export type SweptThreshold = 'critical' | 'moderate';
  */
 export function sweepSlice(tiers: TierResult, axis: SweptThreshold): SweepRow[] | null {
   const held: SweptThreshold = axis === 'critical' ? 'moderate' : 'critical';
-  const rows = tiers.sweep
-    .filter((row) => Math.abs(row[held] - tiers.policy[held]) < SAME)
-    .sort((a, b) => a[axis] - b[axis]);
-  return new Set(rows.map((row) => row[axis])).size >= 2 ? rows : null;
+  const rows: SweepRow[] = [];
+  for (const row of tiers.sweep) {
+    if (Math.abs(row[held] - tiers.policy[held]) >= SAME) continue;
+    // The policy's own row belongs to both slices and may be listed twice: keep it once.
+    if (rows.some((kept) => Math.abs(kept[axis] - row[axis]) < SAME)) continue;
+    rows.push(row);
+  }
+  rows.sort((a, b) => a[axis] - b[axis]);
+  return rows.length >= 2 ? rows : null;
 }
 
 export async function thresholdSweepChartSvg(tiers: TierResult, axis: SweptThreshold): Promise<string | null> {

@@ -1,0 +1,177 @@
+/**
+ * Bench worksheets and manager report rendered from the hand-made plan fixture: structure,
+ * self-containment, escaping, the caution on every run page and the stated references.
+ */
+import { describe, expect, it } from 'vitest';
+import { benchWorksheetsHtml, formatSetting } from '../../src/io/benchWorksheets.js';
+import { managerReportHtml } from '../../src/io/managerReport.js';
+import { InputError } from '../../src/core/inputError.js';
+import { makeHostilePlanFixture, makePlanFixture, makeSchedule } from '../fixtures/report/planFixture.js';
+
+const CAUTION = 'Check every setting on this sheet against the equipment’s rated limits and the site’s safety procedures before starting.';
+const ESCAPED_HOSTILE = '&lt;script&gt;alert(1)&lt;/script&gt; &amp; &quot;quoted&quot; &#x27;x&#x27;';
+
+function count(text: string, needle: string): number {
+  return text.split(needle).length - 1;
+}
+
+/** Nothing fetched from elsewhere: no remote src/href, no stylesheet links, no scripts, no CSS imports. */
+function expectSelfContained(html: string): void {
+  expect(html).not.toMatch(/\s(src|href)\s*=\s*["']?\s*(https?:)?\/\//i);
+  expect(html).not.toMatch(/<link\b/i);
+  expect(html).not.toMatch(/<script\b/i);
+  expect(html).not.toMatch(/@import|url\(\s*["']?(https?:)?\/\//i);
+  expect(html).not.toMatch(/<img\b/i);
+}
+
+/** The HTML of each run page, in document order. */
+function runPages(html: string): string[] {
+  return html.split('<section class="run-page"').slice(1);
+}
+
+describe('formatSetting', () => {
+  it('prints the decimals the settable step implies', () => {
+    expect(formatSetting(12, 0.1)).toBe('12.0');
+    expect(formatSetting(37.5, 0.5)).toBe('37.5');
+    expect(formatSetting(1.25, 0.25)).toBe('1.25');
+    expect(formatSetting(20000, 100)).toBe('20000');
+    expect(formatSetting(180, 1)).toBe('180');
+    expect(formatSetting(1 / 3, undefined)).toBe('0.333333');
+  });
+});
+
+describe('bench worksheets', () => {
+  it('has one page block per scheduled run, in execution order, each with the caution', async () => {
+    const plan = makePlanFixture();
+    const schedule = makeSchedule();
+    const html = await benchWorksheetsHtml(plan, schedule);
+    const pages = runPages(html);
+    expect(pages).toHaveLength(schedule.order.length);
+    pages.forEach((page, index) => {
+      const entry = schedule.order[index];
+      expect(page).toContain(`data-sequence="${entry.sequence}"`);
+      expect(page).toContain(`point <strong>${entry.point}</strong>`);
+      expect(page).toContain(`Day ${entry.session}`);
+      expect(page).toContain(`Plan <strong>${plan.planId}</strong>`);
+      expect(page).toContain(CAUTION);
+      expect(page).toContain('This plan does not replace a hazard review.');
+      expect(page).toContain('Local codes and licensed practice prevail');
+      expect(page).toContain('Operator (name, signature)');
+    });
+    // Print CSS: a page break after every run page but the last.
+    expect(html).toMatch(/\.run-page\s*\{[^}]*break-after:\s*page/);
+    expect(html).toMatch(/\.run-page:last-child\s*\{[^}]*break-after:\s*auto/);
+    expectSelfContained(html);
+  });
+
+  it('prints each run’s set-points with units, the fixed settings and a field per response', async () => {
+    const plan = makePlanFixture();
+    const html = await benchWorksheetsHtml(plan, makeSchedule());
+    // Run 1 is point C1: 180 °C, 37.5 % w/w, 12.0 kg/h; air flow fixed at 400 m³/h.
+    const first = runPages(html)[0];
+    expect(first).toMatch(/<td class="value">180<\/td>\s*<td class="unit">°C<\/td>/);
+    expect(first).toMatch(/<td class="value">37\.5<\/td>\s*<td class="unit">% w\/w<\/td>/);
+    expect(first).toMatch(/<td class="value">12\.0<\/td>\s*<td class="unit">kg\/h<\/td>/);
+    expect(first).toContain('Drying air flow 400 m³/h');
+    for (const response of plan.study.responses) expect(first).toContain(`<td>${response.name}</td><td>${response.unit}</td>`);
+    expect(first).toContain('Set Feed rate to 12.0 kg/h.');
+    expect(first).toContain('hard to change');
+    // Run 2 (F03: 160 °C) follows C1 (180 °C) on the same day: the temperature changes.
+    expect(runPages(html)[1]).toContain('CHANGE from previous run');
+    // Model parameters are not bench settings.
+    expect(html).not.toContain('Effective moisture diffusivity');
+  });
+
+  it('escapes hostile factor names and units', async () => {
+    const plan = makeHostilePlanFixture();
+    const html = await benchWorksheetsHtml(plan, plan.schedule);
+    expect(html).toContain(ESCAPED_HOSTILE);
+    expect(html).toContain('&lt;b&gt;°C&lt;/b&gt;');
+    expect(html).not.toContain('<b>°C</b>');
+    expectSelfContained(html);
+  });
+
+  it('falls back to plan order without a schedule and says on every page that it is not randomised', async () => {
+    const plan = makePlanFixture({ schedule: undefined });
+    const html = await benchWorksheetsHtml(plan, undefined);
+    const pages = runPages(html);
+    expect(pages).toHaveLength(plan.runs.length);
+    pages.forEach((page, index) => {
+      expect(page).toContain('NOT RANDOMISED');
+      expect(page).toContain(`point <strong>${plan.runs[index].point}</strong>`);
+    });
+  });
+
+  it('refuses a schedule that names a point the plan lacks', async () => {
+    const schedule = makeSchedule();
+    schedule.order[3] = { ...schedule.order[3], point: 'F99' };
+    await expect(benchWorksheetsHtml(makePlanFixture(), schedule)).rejects.toBeInstanceOf(InputError);
+  });
+});
+
+describe('manager report', () => {
+  it('states the decision from the conventional row and the comparison summary', async () => {
+    const plan = makePlanFixture();
+    const html = await managerReportHtml(plan, plan.schedule);
+    // Fixture: proposed 9 runs, EUR 7,650, 27 h; conventional 84 runs, EUR 71,400, 252 h.
+    expect(html).toContain('The proposed plan needs 9 runs where the conventional approach');
+    expect(html).toContain('needs 84: 75 runs fewer (89 %), EUR 63,750 less (89 %), 225 fewer bench hours.');
+    expect(html).toContain(plan.comparison!.summary);
+    expectSelfContained(html);
+  });
+
+  it('draws the index chart with thresholds, both sweeps and the FDS curves', async () => {
+    const plan = makePlanFixture();
+    const html = await managerReportHtml(plan, plan.schedule);
+    expect(count(html, '<svg ')).toBe(4);
+    expect(html).toContain('role-mark thresholdLines');
+    expect(html).toContain('id="sweep-critical-chart"');
+    expect(html).toContain('id="sweep-moderate-chart"');
+    expect(count(html, 'role-mark fdsLines')).toBe(plan.comparison!.fdsCurves.length);
+    expect(html).toContain('Zahran, Anderson-Cook &amp; Myers, 2003');
+  });
+
+  it('says what every efficiency is relative to', async () => {
+    const plan = makePlanFixture();
+    const html = await managerReportHtml(plan, plan.schedule);
+    expect(html).toContain('relative to an ideal orthogonal plan with the same number of runs, not to the proposed plan');
+    expect(html).toContain('Relative to the proposed plan (= 1.00)');
+    expect(html).toContain('D-efficiency (relative to an ideal orthogonal plan of the same size)');
+    expect(html).toContain('Efficiency relative to the best approximate plan on the same candidates');
+    // One table row per comparator, the proposed one highlighted.
+    expect(count(html, 'data-comparator="')).toBe(plan.comparison!.comparators.length);
+    expect(html).toContain('<tr class="proposed" data-comparator="proposed">');
+    expect(html).toContain('cannot estimate inlet_temp^2, feed_solids^2');
+  });
+
+  it('lists parameters to estimate and to take from the literature, and the caveats', async () => {
+    const html = await managerReportHtml(makePlanFixture());
+    expect(html).toMatch(/Estimate precisely \(1\)[\s\S]*Effective moisture diffusivity/);
+    expect(html).toMatch(/Literature or nominal value \(1\)[\s\S]*GAB energy constant C/);
+    expect(html).toContain('come from a process model and carry its assumptions');
+    expect(html).toContain('common-practice starting points');
+    expect(html).toContain('The plan assumes the model form');
+    expect(html).toContain('Feed total solids is borderline');
+  });
+
+  it('escapes a hostile factor name in the HTML and in the charts', async () => {
+    const plan = makeHostilePlanFixture();
+    const html = await managerReportHtml(plan, plan.schedule);
+    expect(html).not.toMatch(/<script\b/i);
+    expect(html).toContain(ESCAPED_HOSTILE);
+    const svg = html.slice(html.indexOf('<svg '), html.indexOf('</svg>'));
+    expect(svg).toContain('&lt;script&gt;alert(1)&lt;/script&gt;');
+  });
+
+  it('works without comparison and schedule, and says so', async () => {
+    const plan = makePlanFixture({ comparison: undefined, schedule: undefined });
+    const html = await managerReportHtml(plan, undefined);
+    expect(html).toContain('No comparison with conventional plans is stored in this plan');
+    expect(html).not.toContain('data-comparator=');
+    expect(html).not.toContain('role-mark fdsLines');
+    expect(html).toContain('role-mark thresholdLines');
+    expect(html).toContain('runs are listed in plan order and are not randomised');
+    expect(html).toContain('The proposed plan has 9 runs and estimates all 7 parameters');
+    expectSelfContained(html);
+  });
+});
