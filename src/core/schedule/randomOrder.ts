@@ -13,6 +13,7 @@
 import { xoroshiro128plus } from 'pure-rand/generator/xoroshiro128plus';
 import { uniformInt } from 'pure-rand/distribution/uniformInt';
 import type { RandomGenerator } from 'pure-rand/types/RandomGenerator';
+import { InputError } from '../inputError.js';
 
 export type { RandomGenerator };
 
@@ -21,7 +22,9 @@ export type { RandomGenerator };
  * seeds is folded in rather than dropped: seeds 1 and 2^32 + 1 still give different streams.
  */
 export function createRandom(seed: number): RandomGenerator {
-  if (!Number.isSafeInteger(seed)) throw new RangeError(`seed must be a safe integer, got ${seed}`);
+  if (!Number.isSafeInteger(seed)) {
+    throw new InputError(`the seed must be a whole number below 2^53, not ${seed}`, { key: 'design.seed' });
+  }
   const low = seed | 0;
   const high = Math.floor(seed / 0x1_0000_0000) | 0;
   return xoroshiro128plus(high === 0 ? low : (low ^ Math.imul(high, 0x9e3779b1)) | 0);

@@ -11,10 +11,13 @@
  *   cut positions (R. Bellman, 1957, Dynamic Programming) minimising, in this order, the number
  *   of groups split by a cut and the sum of squared deviations of session sizes from n / S.
  */
+import { InputError } from '../inputError.js';
 
 /** Fewest sessions of at most `maxRuns` runs that hold `runCount` runs. */
 export function sessionCountFor(runCount: number, maxRuns: number): number {
-  if (!Number.isInteger(maxRuns) || maxRuns < 1) throw new RangeError(`maxRuns must be a positive integer, got ${maxRuns}`);
+  if (!Number.isInteger(maxRuns) || maxRuns < 1) {
+    throw new InputError(`the most runs in one session must be a whole number ≥ 1, not ${maxRuns}`, { key: 'sessions.maxRuns' });
+  }
   return Math.max(1, Math.ceil(runCount / maxRuns));
 }
 

@@ -36,3 +36,11 @@ describe('seeded shuffle', () => {
     expect(chiSquare).toBeLessThan(20.52);
   });
 });
+
+describe('seed the user got wrong', () => {
+  it('refuses a seed that is not a safe integer', async () => {
+    const { InputError } = await import('../../../src/core/inputError.js');
+    expect(() => createRandom(1.5)).toThrow(InputError);
+    expect(() => createRandom(2 ** 60)).toThrow(InputError);
+  });
+});

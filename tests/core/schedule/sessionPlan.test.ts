@@ -31,3 +31,11 @@ describe('sessions', () => {
     expect(cut.sizes).toEqual([5, 5, 5, 4]);
   });
 });
+
+describe('session settings the user got wrong', () => {
+  it('refuses a maximum below one as an input error on sessions.maxRuns', async () => {
+    const { InputError } = await import('../../../src/core/inputError.js');
+    expect(() => sessionCountFor(10, 0)).toThrow(InputError);
+    expect(() => sessionCountFor(10, 2.5)).toThrow(/sessions\.maxRuns|whole number/);
+  });
+});
