@@ -205,5 +205,5 @@ export function addSavings(target: ComparatorRow, proposed: Pick<ComparatorRow, 
 }
 
 function proposedLabel(fit: number, centre: number, holdout: number): string {
-  return `Proposed plan: ${fit} model runs + ${centre} centre + ${holdout} holdout`;
+  return `Optimal exact design: ${fit} model runs + ${centre} centre + ${holdout} holdout runs`;
 }

@@ -216,7 +216,7 @@ function responseSurfacePlans(context: ComparatorContext): ComparatorDesign[] {
   const c = context.centreRuns;
   const face = centralComposite(k, 'face', c);
   const rotatable = centralComposite(k, 'rotatable', c);
-  const alphaText = rotatable.alpha.toFixed(3).replace(/0+$/, '');
+  const alphaText = String(Number(rotatable.alpha.toFixed(3)));
   const designs: ComparatorDesign[] = [
     finish(context, { id: 'ccd-face', label: `Face-centred central composite + ${centreText(c)}`, points: face.points }),
     finish(
@@ -269,7 +269,8 @@ function feasibilityNotes(context: ComparatorContext, points: number[][]): strin
   if (!region) return [];
   const infeasible = points.filter((x) => !region.isFeasible(x)).length;
   if (infeasible === 0) return [];
-  return [`${infeasible} of its ${points.length} runs break the study's constraints or equipment limits and cannot be run as listed`];
+  const verb = infeasible === 1 ? 'breaks' : 'break';
+  return [`${infeasible} of its ${points.length} runs ${verb} the study's constraints or equipment limits and cannot be run as listed`];
 }
 
 function romanNumeral(resolution: number): string {
