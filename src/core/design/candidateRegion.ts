@@ -26,7 +26,7 @@ import { xoroshiro128plus } from 'pure-rand/generator/xoroshiro128plus';
 import { InputError } from '../inputError.js';
 import type { Factor } from '../study.js';
 import type { CandidateRegion, FactorLevels } from './designTypes.js';
-import { roundToPrecision, toCoded, toEngineering } from './levels.js';
+import { roundToPrecision, settableValue, toCoded, toEngineering } from './levels.js';
 import { didYouMean } from './termSyntax.js';
 
 /** One design factor of the region, with what is needed to turn coded values into settable ones. */
@@ -170,8 +170,7 @@ export function buildCandidateRegion(
  * precision) and coded back. Used for holdout points that fall between levels.
  */
 export function settableCoded(axis: RegionAxis, coded: number): number {
-  const value = roundToPrecision(toEngineering(axis, coded), axis.precision);
-  return roundToPrecision(toCoded(axis, value));
+  return roundToPrecision(toCoded(axis, settableValue(axis, toEngineering(axis, coded))));
 }
 
 /** Every point of the full grid, last factor fastest. */

@@ -18,7 +18,7 @@ import { xoroshiro128plus } from 'pure-rand/generator/xoroshiro128plus';
 import { InputError } from '../inputError.js';
 import type { Factor } from '../study.js';
 import type { CandidateRegion, FactorLevels } from './designTypes.js';
-import { roundToPrecision, toCoded, toEngineering } from './levels.js';
+import { roundToPrecision, settableValue, toCoded, toEngineering } from './levels.js';
 
 const ENUMERATE_LIMIT = 250_000;
 
@@ -42,7 +42,7 @@ export function centrePoint(
   if (k === 0) return { coded: [], note: 'no factor is varied: the centre runs repeat the fixed settings' };
 
   const settable = (j: number, coded: number): number =>
-    roundToPrecision(toCoded(axes[j], roundToPrecision(toEngineering(axes[j], coded), axes[j].precision)));
+    roundToPrecision(toCoded(axes[j], settableValue(axes[j], toEngineering(axes[j], coded))));
   const centre = axes.map((_, j) => settable(j, 0));
 
   if (region.isFeasible(centre)) {
@@ -86,7 +86,7 @@ export function centrePoint(
 function describe(axes: Factor[], coded: number[]): string {
   return axes
     .map((f, j) => {
-      const value = roundToPrecision(toEngineering(f, coded[j]), f.precision);
+      const value = settableValue(f, toEngineering(f, coded[j]));
       return f.unit && f.unit !== '-' ? `${f.id} ${value} ${f.unit}` : `${f.id} ${value}`;
     })
     .join(', ');

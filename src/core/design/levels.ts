@@ -13,7 +13,7 @@
  * Conventions fixed here:
  * - coded units: low → −1, high → +1, linear in between (`toCoded` / `toEngineering`);
  * - levels are equally spaced over [low, high] in engineering units, rounded to the factor's
- *   precision, and coded from the ROUNDED values (so a coded level may sit slightly off the
+ *   precision (exact halves towards the middle of the range, see `settableValue`), and coded from the ROUNDED values (so a coded level may sit slightly off the
  *   equally spaced coded value — the coded value is what the lab will actually set);
  * - explicit levels from the study must already be settable (multiples of the precision) and
  *   lie in [low, high];
@@ -69,6 +69,16 @@ function decimalsOf(precision: number): number {
   }
   const dot = text.indexOf('.');
   return dot < 0 ? 0 : text.length - dot - 1;
+}
+
+/**
+ * The settable value nearest to an engineering setting: a multiple of the precision, with
+ * exact halves rounded towards the middle of [low, high] so that settings mirrored about the
+ * middle stay mirrored (30–45 in 0.5 steps: 33.75 → 34 and 41.25 → 41).
+ */
+export function settableValue(factor: Pick<Factor, 'low' | 'high' | 'precision'>, value: number): number {
+  const mid = (factor.low + factor.high) / 2;
+  return value > mid ? -roundToPrecision(-value, factor.precision) : roundToPrecision(value, factor.precision);
 }
 
 /**
@@ -196,10 +206,7 @@ function spacedLevels(factor: Factor, index: number, count: number): number[] {
   const values: number[] = [];
   for (let i = 0; i < count; i++) {
     const exact = factor.low + (i * (factor.high - factor.low)) / (count - 1);
-    // Halves round towards the middle of the range so that the levels stay symmetric about
-    // it (30–45 in 0.5 steps: 33.75 → 34 and 41.25 → 41, coded ∓0.467).
-    const mid = (factor.low + factor.high) / 2;
-    let v = exact > mid ? -roundToPrecision(-exact, p) : roundToPrecision(exact, p);
+    let v = settableValue(factor, exact);
     // Keep ends inside the studied range when low/high are not multiples of the precision.
     if (p !== undefined && p > 0) {
       if (v < factor.low) v = roundToPrecision(v + p, p);

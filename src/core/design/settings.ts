@@ -3,12 +3,13 @@
  *
  * Converts a coded point (design factors only) to engineering units with the coding of
  * `levels.ts` (low → −1, high → +1) and rounds every setting to the factor's precision,
- * the smallest step the equipment can be set to (common practice). Fixed operating factors
+ * the smallest step the equipment can be set to (common practice), exact halves towards the
+ * middle of the range as for the levels (`settableValue`). Fixed operating factors
  * appear at their `fixedAt` value so that every run sheet row is complete.
  */
 import type { Factor } from '../study.js';
 import type { FactorLevels } from './designTypes.js';
-import { roundToPrecision, toEngineering } from './levels.js';
+import { roundToPrecision, settableValue, toEngineering } from './levels.js';
 
 /**
  * Factor id → engineering setting for every operating factor in `levels` (in that order).
@@ -29,7 +30,7 @@ export function settingsFor(
     }
     const x = coded[level.id];
     if (x === undefined) throw new Error(`design point has no coded value for ${level.id}`);
-    settings[level.id] = roundToPrecision(toEngineering(factor, x), factor.precision);
+    settings[level.id] = settableValue(factor, toEngineering(factor, x));
   }
   return settings;
 }
