@@ -235,7 +235,7 @@ function addTierSheet(workbook: ExcelJS.Workbook, plan: PlanDocument): void {
     row.values = [
       factor.name, factor.id, factor.unit, factor.role, factor.tier, factor.aggregatedTotal, factor.aggregatedFirst,
       factor.aggregatedTotalLow, factor.aggregatedTotalHigh, factor.borderline ? 'yes' : 'no', factor.interactionShare, inPlan,
-      level?.reason ?? '',
+      level?.reason ?? calibrationWords(plan, factor.id),
     ];
     for (const c of [6, 7, 8, 9, 11]) row.getCell(c).numFmt = '0.000';
   });
@@ -260,6 +260,12 @@ function addTierSheet(workbook: ExcelJS.Workbook, plan: PlanDocument): void {
   [30, 16, 10, 10, 11, 12, 12, 12, 12, 10, 12, 26, 40].forEach((w, i) => (sheet.getColumn(i + 1).width = w));
 }
 
+function calibrationWords(plan: PlanDocument, id: string): string {
+  const entry = plan.tiers.calibration.entries.find((e) => e.id === id);
+  if (!entry) return '';
+  return entry.action === 'estimate' ? 'model parameter: estimate precisely from the lab data' : 'model parameter: take a literature or nominal value';
+}
+
 function addModelSheet(workbook: ExcelJS.Workbook, plan: PlanDocument, schedule: Schedule): void {
   const sheet = workbook.addWorksheet(SHEET_NAMES.model);
   sheet.getCell('A1').value = 'Model terms and design metrics (coded units: low → −1, high → +1)';
@@ -279,11 +285,11 @@ function addModelSheet(workbook: ExcelJS.Workbook, plan: PlanDocument, schedule:
     ['Runs on the sheet', plan.runs.length, 'Fitting, centre and validation runs together.', '0'],
     ['D-efficiency (%)', m.dEfficiency, "Textbook 100·|X'X|^(1/p)/N for the fitting runs: relative to a hypothetical orthogonal design of N runs with every setting at ±1, which a model with square terms or constraints cannot reach.", '0.0'],
     [
-      'D-efficiency against the bound (%)',
+      'D-efficiency against the continuous optimum (%)',
       m.boundEfficiency,
       m.boundEfficiency === null
         ? `Not computed: ${m.boundNote}`
-        : `Relative to the best continuous (approximate) D-optimal design on the same candidate region, 100·(det M(exact)/det M(bound))^(1/p). ${m.boundNote}`,
+        : `100·(det M(exact)/det M(bound))^(1/p), relative to the best continuous (approximate) D-optimal design, which no exact design can beat: ${m.boundNote}`,
       '0.0',
     ],
     ['Average prediction variance (σ² units)', m.iCriterion, "trace((X'X)⁻¹·W) over the region, W the region moment matrix; lower is better. Not an efficiency.", '0.000'],
@@ -300,7 +306,7 @@ function addModelSheet(workbook: ExcelJS.Workbook, plan: PlanDocument, schedule:
   }
   if (plan.warnings.length > 0) {
     row++;
-    tableHeader(sheet, row++, ['Warning']);
+    tableHeader(sheet, row++, ['Notes from planning']);
     for (const warning of plan.warnings) sheet.getRow(row++).values = [warning];
   }
   [34, 14, 90].forEach((w, i) => (sheet.getColumn(i + 1).width = w));

@@ -130,13 +130,15 @@ describe('run sheet workbook', () => {
     const dRow = rowWith(model, 'D-efficiency (%)');
     expect(model.getCell(dRow, 2).value).toBe(41.2);
     expect(String(model.getCell(dRow, 3).value)).toMatch(/relative to a hypothetical orthogonal design/);
-    expect(String(model.getCell(rowWith(model, 'D-efficiency against the bound (%)'), 3).value)).toMatch(/Relative to the best continuous/);
+    expect(String(model.getCell(rowWith(model, 'D-efficiency against the continuous optimum (%)'), 3).value)).toMatch(/relative to the best continuous/);
+    expect(model.getCell(rowWith(model, 'D-efficiency against the continuous optimum (%)'), 2).value).toBe(93.5);
 
     const tiers = workbook.getWorksheet(SHEET_NAMES.tiers)!;
     const inlet = rowWith(tiers, 'Inlet air temperature');
     expect(tiers.getCell(inlet, 5).value).toBe('critical');
     expect(tiers.getCell(inlet, 6).value).toBe(0.52);
     expect(tiers.getCell(inlet, 12).value).toBe('varied: 160, 180, 200');
+    expect(tiers.getCell(rowWith(tiers, 'GAB energy constant C'), 13).value).toBe('model parameter: estimate precisely from the lab data');
   });
 
   it('says so when the comparison was not computed, and fills it when present', async () => {
