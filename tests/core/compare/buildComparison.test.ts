@@ -177,7 +177,7 @@ describe('buildComparison: 2 varied factors with a constraint', () => {
   it('applies the constraint to the full grid and flags comparator runs that break it', () => {
     expect(row('full-grid').runs).toBe(8); // (10, 10) is excluded
     expect(row('full-grid').label).toMatch(/constraints applied \(1 of 9 combinations excluded\)/);
-    expect(row('full-factorial').verdict).toMatch(/1 of its 6 runs break the study's constraints/);
+    expect(row('full-factorial').verdict).toMatch(/1 of its 6 runs breaks the study's constraints/);
   });
 
   it('uses constrained-region moments for the average prediction variance', () => {
