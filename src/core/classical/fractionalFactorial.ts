@@ -45,7 +45,11 @@ export interface FractionalFactorial {
   resolution: number;
   /** [A3, A4, …, Ak]: numbers of defining words of each length. */
   wordLengthPattern: number[];
-  /** All 2^p − 1 defining words, shortest first then in letter order, with "-" when the word's sign is negative. */
+  /**
+   * The defining words, shortest first then in letter order, with "-" when the word's sign is
+   * negative: all 2^p − 1 of them when p ≤ 12, else the 4095 shortest (a list of millions of
+   * words helps nobody; the pattern still counts them all).
+   */
   definingWords: string[];
   /**
    * Only on search results: how much of the search ran (defining words formed, the unit of
@@ -56,18 +60,28 @@ export interface FractionalFactorial {
 }
 
 export interface FractionSearchOptions {
-  /** Largest run size acceptable; the search gives up (null) beyond it. Default: 2^k. */
+  /** Largest run size acceptable; the search gives up (null) beyond it. Default and ceiling: min(2^k, 65 536). */
   maxRuns?: number;
   /**
    * Smallest run size to consider (optional addition to the contract). With minResolution 3,
    * `minRuns: 32` gives the minimum-aberration fraction of 32 runs, whatever resolution it reaches.
    */
   minRuns?: number;
-  /** Defining words the search may form before it settles for the best found. Default 20 000 000 (about a second). */
+  /**
+   * Defining words each search (one run size, one target resolution) may form before it settles
+   * for the best found. Default 20 000 000 (about a second); never reached up to 12 factors at
+   * resolution IV or V.
+   */
   searchBudget?: number;
 }
 
 const DEFAULT_SEARCH_BUDGET = 20_000_000;
+
+const MAX_GENERATORS = 20;
+/** Largest fraction the search builds: far past any lab campaign, still small in memory. */
+const MAX_FRACTION_RUNS = 2 ** 16;
+/** Beyond this many defining words only the shortest are listed (see `definingWords`). */
+const MAX_LISTED_WORDS = 4095;
 
 const GENERATOR_PATTERN = /^\s*([A-Z])\s*=\s*([+-]?)\s*([A-Z]+)\s*$/;
 
@@ -82,6 +96,8 @@ export function fractionFromGenerators(k: number, generators: readonly string[])
   }
   const p = generators.length;
   if (p >= k) throw new RangeError(`${p} generators leave no base factor among ${k} factors`);
+  // More than 20 generators means at most 5 base factors for 25 letters: resolution II at best.
+  if (p > MAX_GENERATORS) throw new RangeError(`at most ${MAX_GENERATORS} generators are supported, got ${p}`);
 
   const parsed = generators.map((text) => {
     const match = GENERATOR_PATTERN.exec(text);
@@ -128,10 +144,17 @@ export function fractionFromGenerators(k: number, generators: readonly string[])
   const counts = wordLengthCounts(words, k);
   const shortest = counts.findIndex((count) => count > 0);
 
-  const definingWords = words
-    .map((word, i) => ({ word, text: (signs[i] ? '-' : '') + wordToString(word) }))
-    .sort((a, b) => wordLength(a.word) - wordLength(b.word) || compareLetters(a.word, b.word))
-    .map(({ text }) => text);
+  // Sort on one numeric key per word (length, then letter order) — a fraction with many
+  // generators has 2^p − 1 words, and a comparator-based sort of objects is too slow there.
+  const order = new Float64Array(words.length);
+  words.forEach((word, i) => {
+    order[i] = (wordLength(word) * 2 ** MAX_LETTERED_FACTORS + letterOrderKey(word)) * 2 ** 21 + i;
+  });
+  order.sort();
+  const definingWords = Array.from(order.subarray(0, MAX_LISTED_WORDS), (key) => {
+    const i = key % 2 ** 21;
+    return (signs[i] ? '-' : '') + wordToString(words[i]);
+  });
 
   return {
     k,
@@ -147,8 +170,11 @@ export function fractionFromGenerators(k: number, generators: readonly string[])
 
 /**
  * The smallest regular 2^(k−p) fraction with resolution ≥ `minResolution` (and at least
- * `minRuns` runs), and among those the one of minimum aberration. Returns the full factorial when no proper fraction qualifies (its
- * resolution is then the sentinel k + 1), and null when even that needs more than `maxRuns`.
+ * `minRuns` runs), and among those the one of minimum aberration. Returns the full factorial
+ * when no proper fraction qualifies (its resolution is then the sentinel k + 1), and null when
+ * even that needs more than `maxRuns`. When a search is cut short by the budget without finding
+ * a fraction of some run size, the next size is tried, so the result may then be larger than
+ * the smallest possible; `search.exhaustive` says whether everything was proven.
  */
 export function minimumAberrationFraction(
   k: number,
@@ -161,10 +187,13 @@ export function minimumAberrationFraction(
   if (!Number.isInteger(minResolution) || minResolution < 3) {
     throw new RangeError(`the required resolution must be an integer of at least 3 (III), got ${minResolution}`);
   }
-  const maxRuns = options.maxRuns ?? 2 ** k;
+  const maxRuns = Math.min(options.maxRuns ?? 2 ** k, MAX_FRACTION_RUNS);
   const minRuns = options.minRuns ?? 1;
   const budget = options.searchBudget ?? DEFAULT_SEARCH_BUDGET;
 
+  // Each search gets the whole budget: when a stricter search is cut short, the search at the
+  // required resolution must still have the means to find a fraction. Time is bounded by the
+  // number of run sizes and targets tried, each about a budget's worth at most.
   let wordsFormed = 0;
   let exhaustive = true;
   for (let m = 1; m <= k; m++) {
@@ -176,7 +205,7 @@ export function minimumAberrationFraction(
     // stricter searches are the small ones, and the last success is the answer.
     let result: ColumnSearchResult | null = null;
     for (let target = minResolution + 1; target <= k; ) {
-      const attempt = searchGeneratorColumns(m, k - m, target, budget - wordsFormed);
+      const attempt = searchGeneratorColumns(m, k - m, target, budget);
       wordsFormed += attempt.wordsFormed;
       exhaustive &&= attempt.exhaustive;
       if (!attempt.columns) break;
@@ -184,7 +213,7 @@ export function minimumAberrationFraction(
       target = attempt.resolution + 1;
     }
     if (!result) {
-      result = searchGeneratorColumns(m, k - m, minResolution, budget - wordsFormed);
+      result = searchGeneratorColumns(m, k - m, minResolution, budget);
       wordsFormed += result.wordsFormed;
       exhaustive &&= result.exhaustive;
     }
@@ -312,11 +341,14 @@ function searchGeneratorColumns(m: number, p: number, resolution: number, budget
   };
 }
 
-/** Orders words of equal length by their letters, A first. */
-function compareLetters(a: number, b: number): number {
-  for (let j = 0; j < 32; j++) {
-    const difference = ((b >>> j) & 1) - ((a >>> j) & 1);
-    if (difference !== 0) return difference;
-  }
-  return 0;
+/**
+ * Key that sorts words of equal length in letter order: the word holding the earlier letter at
+ * the first letter where two words differ comes first. Reversing the bits puts letter A in the
+ * most significant place; the complement makes "holds it" sort low.
+ */
+function letterOrderKey(word: number): number {
+  const letters = MAX_LETTERED_FACTORS;
+  let reversed = 0;
+  for (let j = 0; word >>> j !== 0; j++) if ((word >>> j) & 1) reversed |= 1 << (letters - 1 - j);
+  return 2 ** letters - 1 - reversed;
 }

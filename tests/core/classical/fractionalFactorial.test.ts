@@ -172,6 +172,19 @@ describe('search limits', () => {
     expect(fraction.search?.exhaustive).toBe(false);
   });
 
+  it('many factors: a small budget still yields a fraction of the required resolution; long word lists are cut to the shortest 4095', () => {
+    const fraction = minimumAberrationFraction(20, 3, { searchBudget: 100_000 })!;
+    // 20 factors need 32 runs at resolution III (16 runs hold at most 15; NIST §5.3.3.4.7, from memory).
+    expect(fraction.runs).toBe(32);
+    expect(fraction.p).toBe(15);
+    expect(fraction.resolution).toBeGreaterThanOrEqual(3);
+    expect(fraction.wordLengthPattern.reduce((sum, count) => sum + count, 0)).toBe(2 ** 15 - 1);
+    expect(fraction.definingWords).toHaveLength(4095);
+    const lengths = fraction.definingWords.map((word) => word.length);
+    expect(lengths[0]).toBe(fraction.resolution);
+    expect([...lengths].sort((a, b) => a - b)).toEqual(lengths);
+  });
+
   it('ties go to the first generator set of the canonical order (deterministic output)', () => {
     expect(minimumAberrationFraction(6, 4)!.generators).toEqual(['E=ABC', 'F=ABD']);
     expect(minimumAberrationFraction(7, 4)!.generators).toEqual(['E=ABC', 'F=ABD', 'G=ACD']);
