@@ -6,7 +6,7 @@
  * center points to the 2^k design"). The centre is coded 0 on every varied factor, set in
  * engineering units rounded to the factor's precision — so its coded value may sit slightly
  * off 0 (e.g. a 160–201 °C range with 1 °C steps has its settable centre at 181 °C, coded
- * 0.024), and the note says so.
+ * 0.024), and the note says so. The note is empty when the centre is exactly coded 0.
  *
  * When the constraints or equipment limits exclude the centre, the runs move to the nearest
  * feasible point in coded Euclidean distance, searched over the levels and the midpoints
@@ -50,10 +50,11 @@ export function centrePoint(
       .map((f, j) => ({ f, c: centre[j] }))
       .filter(({ c }) => Math.abs(c) > 1e-12)
       .map(({ f, c }) => `${f.id} at coded ${c.toFixed(3)}`);
-    const rounding = shifted.length
-      ? `; rounding to the settable precision puts ${shifted.join(', ')} instead of 0`
+    // Nothing to report when the centre is exactly coded 0.
+    const note = shifted.length
+      ? `centre runs at ${describe(axes, centre)}: rounding to the settable precision puts ${shifted.join(', ')} instead of 0`
       : '';
-    return { coded: centre, note: `centre of the region: ${describe(axes, centre)}${rounding}` };
+    return { coded: centre, note };
   }
 
   // Fine sets: the levels, the midpoints between adjacent levels and the settable centre.

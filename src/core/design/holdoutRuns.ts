@@ -35,13 +35,19 @@ export function defaultHoldoutCount(fitRuns: number): number {
 /**
  * `count` interior feasible points (coded, region factor order), chosen by greedy maximin
  * distance from `occupied`. Throws InputError (key `design.holdoutRuns`) when the region has
- * fewer interior candidates than asked.
+ * fewer free interior candidates than asked, unless `atMost` is set (then fewer come back).
  */
+export interface HoldoutOptions {
+  /** Return fewer holdouts instead of failing when the region has too few candidates (for `auto` counts). */
+  atMost?: boolean;
+}
+
 export function chooseHoldoutRuns(
   region: CandidateRegion,
   occupied: number[][],
   count: number,
   seed: number,
+  options: HoldoutOptions = {},
 ): number[][] {
   if (count <= 0) return [];
   const k = region.factorIds.length;
@@ -55,21 +61,22 @@ export function chooseHoldoutRuns(
       values.add(snapOne(j, c));
       if (i > 0) values.add(snapOne(j, (set[i - 1] + c) / 2));
     });
-    const inside = [...values].filter((c) => Math.abs(c) < EDGE).sort((a, b) => a - b);
-    if (inside.length === 0) {
-      throw new InputError(`${region.factorIds[j]} has no settable value strictly between its low and high levels`, {
-        key: 'design.holdoutRuns',
-      });
-    }
-    return inside;
+    return [...values].filter((c) => Math.abs(c) < EDGE).sort((a, b) => a - b);
   });
+  const flat = interior.findIndex((set) => set.length === 0);
+  if (flat >= 0) {
+    if (options.atMost) return [];
+    throw new InputError(`${region.factorIds[flat]} has no settable value strictly between its low and high levels`, {
+      key: 'design.holdoutRuns',
+    });
+  }
 
   const rng = xoroshiro128plus(seed);
   let size = 1;
   for (const set of interior) size *= set.length;
   const raw = size <= ENUMERATE_LIMIT ? enumerate(interior) : sample(interior, rng);
   const candidates = raw.filter((p) => region.isFeasible(p) && offFaces(region, p));
-  if (candidates.length < count) {
+  if (candidates.length < count && !options.atMost) {
     throw new InputError(
       `only ${candidates.length} interior feasible points are available for ${count} holdout runs; ask for fewer`,
       { key: 'design.holdoutRuns' },
@@ -92,6 +99,7 @@ export function chooseHoldoutRuns(
     for (let c = 0; c < candidates.length; c++) if (!taken[c] && nearest[c] > best) best = nearest[c];
     // A candidate on top of an occupied point adds nothing as a check.
     if (!(best > 1e-18)) {
+      if (options.atMost) break;
       throw new InputError(`only ${h} interior points are free of fitting and centre runs; ask for fewer holdout runs`, {
         key: 'design.holdoutRuns',
       });

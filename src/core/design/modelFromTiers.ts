@@ -45,6 +45,9 @@ export interface DeriveModelOptions {
   interactionTable?: boolean;
 }
 
+/** Index values are sums of decimals from a table: a value equal to a threshold must reach it. */
+const TOLERANCE = 1e-12;
+
 /** Highest power a tier earns by default (before the level count caps it). */
 const POWER_CAP: Record<FactorTier['tier'], number> = { critical: 3, moderate: 2, negligible: 1 };
 
@@ -108,7 +111,7 @@ function fromTiers(
   if (tableGiven) {
     const pairsSeen = new Set<string>();
     for (const pair of tiers.interactionPairs) {
-      if (pair.index < policy.interaction) continue;
+      if (pair.index < policy.interaction - TOLERANCE) continue;
       const missing = [pair.factorA, pair.factorB].filter((id) => !variedIds.has(id));
       if (missing.length > 0) {
         notes.push(
@@ -138,7 +141,7 @@ function fromTiers(
         const ta = tierOf.get(varied[a].id);
         const tb = tierOf.get(varied[b].id);
         if (!ta || !tb) continue;
-        if (ta.interactionShare >= policy.interaction && tb.interactionShare >= policy.interaction) {
+        if (ta.interactionShare >= policy.interaction - TOLERANCE && tb.interactionShare >= policy.interaction - TOLERANCE) {
           terms.push({
             powers: { [ta.id]: 1, [tb.id]: 1 },
             reason:

@@ -71,6 +71,16 @@ describe('chooseHoldoutRuns, worked by hand on a 3 × 3 grid', () => {
     expect(chooseHoldoutRuns(region, grid, 0, 1)).toEqual([]);
   });
 
+  it('returns what there is when asked for at most a count', () => {
+    expect(chooseHoldoutRuns(region, grid, 12, 1, { atMost: true })).toHaveLength(8);
+    // Levels 0, 1 in whole steps have no setting strictly between them.
+    const { factors: two, tiers: twoTiers } = square(2, 1);
+    const bare = planLevels(two.map((f) => ({ ...f, high: 1, levels: 2 })), twoTiers, DEFAULT_DESIGN.levels);
+    const r = buildCandidateRegion(two.map((f) => ({ ...f, high: 1 })), bare, []);
+    expect(chooseHoldoutRuns(r, r.points!, 2, 1, { atMost: true })).toEqual([]);
+    expect(inputError(() => chooseHoldoutRuns(r, r.points!, 2, 1)).message).toContain('no settable value strictly between');
+  });
+
   it('avoids constraint faces', () => {
     // x1 + x2 ≤ 2 in engineering units is x1 + x2 ≤ 0 coded: (0, 0), (−0.5, 0.5) and (0.5, −0.5) lie on the face.
     const cut = buildCandidateRegion(factors, levels, ['x1 + x2 <= 2']);
