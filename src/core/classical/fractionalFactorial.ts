@@ -53,8 +53,9 @@ export interface FractionalFactorial {
   definingWords: string[];
   /**
    * Only on search results: how much of the search ran (defining words formed, the unit of
-   * work). `exhaustive` is false when the budget stopped the search early; the fraction then has the required resolution but its
-   * aberration is only the best found, not proven minimal. (Optional addition to the contract.)
+   * work). `exhaustive` is false when the budget stopped the search early; the fraction then has
+   * the required resolution but its aberration is only the best found, not proven minimal, and
+   * its run size may not be the smallest. (Optional addition to the contract.)
    */
   search?: { wordsFormed: number; exhaustive: boolean };
 }

@@ -185,6 +185,12 @@ describe('search limits', () => {
     expect([...lengths].sort((a, b) => a - b)).toEqual(lengths);
   });
 
+  it('letters follow factor order and skip I: the 12th factor is M', () => {
+    const fraction = minimumAberrationFraction(12, 4)!;
+    expect(fraction.generators.map((generator) => generator[0])).toEqual(['F', 'G', 'H', 'J', 'K', 'L', 'M']);
+    expect(fraction.definingWords.join('')).not.toContain('I');
+  });
+
   it('ties go to the first generator set of the canonical order (deterministic output)', () => {
     expect(minimumAberrationFraction(6, 4)!.generators).toEqual(['E=ABC', 'F=ABD']);
     expect(minimumAberrationFraction(7, 4)!.generators).toEqual(['E=ABC', 'F=ABD', 'G=ACD']);
