@@ -123,6 +123,7 @@ export function fractionFromGenerators(k: number, generators: readonly string[])
   for (let j = 0; j < k; j++) if (!((addedMask >>> j) & 1)) baseFactors.push(j);
   const m = baseFactors.length;
   const runs = 2 ** m;
+  if (runs > MAX_FRACTION_RUNS) throw new RangeError(`${k} factors with ${p} generators give ${runs} runs, more than the ${MAX_FRACTION_RUNS} built here`);
 
   const points: number[][] = new Array(runs);
   for (let i = 0; i < runs; i++) {

@@ -156,6 +156,7 @@ describe('construction', () => {
     expect(() => fractionFromGenerators(5, ['E=ABC', 'E=ABD'])).toThrow(/two generators/);
     expect(() => fractionFromGenerators(6, ['E=ABC', 'F=ABE'])).toThrow(/added factor/);
     expect(() => fractionFromGenerators(5, ['F=ABC'])).toThrow(/not one of/);
+    expect(() => fractionFromGenerators(18, ['R=ABC'])).toThrow(/more than the 65536/);
   });
 });
 
