@@ -44,32 +44,51 @@ function plural(count: number, word: string): string {
   return `${grouped(count)} ${word}${count === 1 ? '' : 's'}`;
 }
 
-/** The decision sentences, computed from the proposed and conventional rows. */
-function decisionSentences(plan: PlanDocument, comparison: Comparison | undefined): string[] {
-  const parameters = plan.metrics.p;
-  const totalRuns = plan.runs.length;
+interface DecisionView {
+  /** One or two sentences: the comparison's own summary, or what can be said without one. */
+  sentences: string[];
+  /** Proposed against conventional, figure by figure; null when either row is missing or unbuilt. */
+  figures: { measure: string; proposed: string; conventional: string; difference: string }[] | null;
+  conventionalLabel: string;
+}
+
+function difference(proposed: number | null, conventional: number | null, format: (value: number) => string): string {
+  if (proposed === null || conventional === null) return DASH;
+  const saved = conventional - proposed;
+  const percent = conventional === 0 ? '' : ` (${fixed((100 * saved) / conventional, 0)} %)`;
+  return saved >= 0 ? `${format(saved)} saved${percent}` : `${format(-saved)} extra${percent.replace('(-', '(+')}`;
+}
+
+/** The decision: the comparison summary plus the proposed-versus-conventional figures. */
+function decisionView(plan: PlanDocument, comparison: Comparison | undefined): DecisionView {
   if (!comparison) {
-    return [
-      `The proposed plan has ${plural(totalRuns, 'run')} and estimates all ${parameters} parameters of the target model.`,
-      'No comparison with conventional plans is stored in this plan, so this report claims no savings. Run the comparison stage to add one.',
-    ];
+    return {
+      sentences: [
+        `The proposed plan has ${plural(plan.runs.length, 'run')} and estimates all ${plan.metrics.p} parameters of the target model.`,
+        'No comparison with conventional plans is stored in this plan, so this report claims no savings. Run the comparison stage to add one.',
+      ],
+      figures: null,
+      conventionalLabel: '',
+    };
   }
   const currency = comparison.currency;
   const proposed = comparison.comparators.find((row) => row.id === 'proposed');
   const conventional = comparison.comparators.find((row) => row.id === 'conventional');
-  const sentences: string[] = [];
-  if (proposed && conventional && conventional.runs !== null && proposed.runs !== null) {
-    const parts = [`${plural(conventional.runsSaved ?? conventional.runs - proposed.runs, 'run')} fewer (${fixed(conventional.percentRunsSaved, 0)} %)`];
-    if (conventional.costSaved !== null) parts.push(`${money(conventional.costSaved, currency)} less (${fixed(conventional.percentCostSaved, 0)} %)`);
-    if (conventional.hours !== null && proposed.hours !== null) parts.push(`${grouped(conventional.hours - proposed.hours, 0)} fewer bench hours`);
-    sentences.push(
-      `The proposed plan needs ${plural(proposed.runs, 'run')} where the conventional approach (${conventional.label}) needs ${grouped(conventional.runs)}: ${parts.join(', ')}.`,
-    );
-  } else if (proposed && proposed.runs !== null) {
-    sentences.push(`The proposed plan needs ${plural(proposed.runs, 'run')}; no conventional plan could be built for comparison.`);
+  if (!proposed || !conventional || proposed.runs === null || conventional.runs === null) {
+    return { sentences: [comparison.summary, 'No conventional plan could be built for this study, so no savings are shown.'], figures: null, conventionalLabel: '' };
   }
-  sentences.push(comparison.summary);
-  return sentences;
+  const estimates = (row: ComparatorRow) =>
+    row.fitsModel ? `all ${comparison.p}` : `${comparison.p - row.missingTerms.length} of ${comparison.p}`;
+  return {
+    sentences: [comparison.summary],
+    conventionalLabel: conventional.label,
+    figures: [
+      { measure: 'Runs', proposed: grouped(proposed.runs), conventional: grouped(conventional.runs), difference: difference(proposed.runs, conventional.runs, (v) => grouped(v)) },
+      { measure: `Cost${currency ? ` (${currency})` : ''}`, proposed: grouped(proposed.cost), conventional: grouped(conventional.cost), difference: difference(proposed.cost, conventional.cost, (v) => grouped(v)) },
+      { measure: 'Bench hours', proposed: grouped(proposed.hours), conventional: grouped(conventional.hours), difference: difference(proposed.hours, conventional.hours, (v) => grouped(v)) },
+      { measure: 'Model parameters it can estimate', proposed: estimates(proposed), conventional: estimates(conventional), difference: '' },
+    ],
+  };
 }
 
 interface ComparatorView {
@@ -210,7 +229,7 @@ export async function managerReportHtml(plan: PlanDocument, schedule: Schedule |
     planId: plan.planId,
     createdDate: plan.createdAt.slice(0, 10),
     toolVersion: plan.tool.version,
-    decision: decisionSentences(plan, comparison),
+    decision: decisionView(plan, comparison),
     planShape: `${plural(plan.runs.length, 'run')}: ${fitRuns} for fitting, ${centreRuns} replicate centre ${centreRuns === 1 ? 'point' : 'points'}, ${holdoutRuns} holdout check ${holdoutRuns === 1 ? 'run' : 'runs'}; ${plan.metrics.p} model parameters.`,
     policy: {
       aggregate: plan.tiers.policy.aggregate,

@@ -91,7 +91,7 @@ describe('prediction-variance (FDS) chart', () => {
     expect(svg).toContain('Proposed plan');
     expect(svg).toContain('Box–Behnken');
     // Fixture curves run from 0.13 × 0.2 to 0.8: a span of about 31.
-    expect(svg).toContain('log scale');
+    expect(svg).toContain('(log scale)');
   });
 
   it('stays linear when the curves are close, and returns null without curves', async () => {

@@ -114,10 +114,28 @@ describe('manager report', () => {
     const plan = makePlanFixture();
     const html = await managerReportHtml(plan, plan.schedule);
     // Fixture: proposed 9 runs, EUR 7,650, 27 h; conventional 84 runs, EUR 71,400, 252 h.
-    expect(html).toContain('The proposed plan needs 9 runs where the conventional approach');
-    expect(html).toContain('needs 84: 75 runs fewer (89 %), EUR 63,750 less (89 %), 225 fewer bench hours.');
-    expect(html).toContain(plan.comparison!.summary);
+    expect(html).toContain(`<p>${plan.comparison!.summary}</p>`);
+    const figures = html.slice(html.indexOf('<table class="key-figures">'), html.indexOf('</table>', html.indexOf('key-figures')));
+    // 84 − 9 = 75 runs = 89 % of 84; EUR 71,400 − 7,650 = 63,750 (89 %); 252 − 27 = 225 h (89 %).
+    expect(figures).toMatch(/<td>Runs<\/td><td class="num">9<\/td><td class="num">84<\/td><td class="num">75 saved \(89 %\)<\/td>/);
+    expect(figures).toMatch(/<td>Cost \(EUR\)<\/td><td class="num">7,650<\/td><td class="num">71,400<\/td><td class="num">63,750 saved \(89 %\)<\/td>/);
+    expect(figures).toContain('225 saved (89 %)');
+    expect(figures).toContain('<td class="num">all 7</td>');
+    expect(html).toContain('3-level full factorial of all 4 operating factors + 3 centre runs. Differences are the proposed plan against this plan');
     expectSelfContained(html);
+  });
+
+  it('says "extra" when the conventional plan is the smaller one, and copes without a conventional row', async () => {
+    const plan = makePlanFixture();
+    const conventional = plan.comparison!.comparators.find((row) => row.id === 'conventional')!;
+    Object.assign(conventional, { runs: 5, cost: 4250, hours: 15 });
+    const html = await managerReportHtml(plan);
+    // 9 − 5 = 4 runs more = 80 % of 5.
+    expect(html).toContain('<td class="num">4 extra (+80 %)</td>');
+    plan.comparison!.comparators = plan.comparison!.comparators.filter((row) => row.id !== 'conventional');
+    const without = await managerReportHtml(plan);
+    expect(without).toContain('No conventional plan could be built for this study, so no savings are shown.');
+    expect(without).not.toContain('<table class="key-figures">');
   });
 
   it('draws the index chart with thresholds, both sweeps and the FDS curves', async () => {

@@ -22,7 +22,7 @@ export async function indexChartSvg(tiers: TierResult): Promise<string> {
   const factors = [...tiers.factors].sort((a, b) => b.aggregatedTotal - a.aggregatedTotal);
   const rows = factors.map((factor) => ({
     key: factor.id,
-    label: factor.role === 'model' ? `${factor.name} (model parameter)` : factor.name,
+    label: factor.role === 'model' ? `${factor.name} (model)` : factor.name,
     tier: factor.tier,
     total: factor.aggregatedTotal,
     first: factor.aggregatedFirst,
@@ -89,7 +89,9 @@ export async function indexChartSvg(tiers: TierResult): Promise<string> {
             text: { field: 'label' },
             align: { value: 'right' },
             baseline: { value: 'middle' },
-            limit: { value: 420 },
+            fontSize: { value: 10 },
+            // Headless vega guesses text width at 0.8 em per character, so this allows about 47 characters.
+            limit: { value: 380 },
           },
         },
       },

@@ -74,7 +74,8 @@ export async function predictionVarianceChartSvg(comparison: Comparison): Promis
       {
         orient: 'left',
         scale: 'y',
-        title: `Prediction variance (σ² units)${logarithmic ? ', log scale' : ''}`,
+        // Short: vega's headless text measure overestimates, and a long rotated title pads the chart.
+        title: `Variance, σ²${logarithmic ? ' (log scale)' : ''}`,
         grid: true,
       },
     ],
@@ -87,6 +88,7 @@ export async function predictionVarianceChartSvg(comparison: Comparison): Promis
         symbolType: 'stroke',
         symbolSize: 300,
         symbolStrokeWidth: 2.5,
+        labelLimit: 320,
         encode: { labels: { update: { text: { scale: 'name', field: 'value' } } } },
       },
     ],
