@@ -1,6 +1,106 @@
+/**
+ * `tierplan plan <study>`: the whole job — tiers, levels, model, optimal design, centre and
+ * holdout runs, run order, comparison — and the files the bench and the manager use.
+ */
+import { resolve } from 'node:path';
 import type { Command } from 'commander';
+import { InputError } from '../core/inputError.js';
+import type { PlanDocument } from '../core/plan/planDocument.js';
+import type { Study } from '../core/study.js';
+import { loadStudy } from '../io/studyFile.js';
+import { planJson, sealPlan } from '../io/planFile.js';
+import { toolVersion } from '../io/toolVersion.js';
+import { planSummary } from './planSummary.js';
 
-// Placeholder until the plan subcommand lands.
+interface PlanOptions {
+  out?: string;
+  json?: boolean;
+  force?: boolean;
+  seed?: string;
+  runs?: string;
+  criterion?: string;
+  starts?: string;
+}
+
 export function registerPlan(program: Command): void {
-  void program;
+  program
+    .command('plan')
+    .description('plan the lab campaign for a study and write the run sheets and the report')
+    .argument('<study>', 'study file (.yaml, .yml or .json)')
+    .option('-o, --out <dir>', 'folder for plan.json, runsheet.xlsx, runsheet.csv, worksheets.html and report.html')
+    .option('--json', 'print the plan document on stdout (writes nothing unless --out is given)')
+    .option('--force', 'overwrite files of a different plan in the output folder')
+    .option('--seed <n>', 'random seed for the design search and the run order (overrides design.seed)')
+    .option('--runs <n>', "fitting runs, or 'auto' (overrides design.runs)")
+    .option('--criterion <name>', 'D or I (overrides design.criterion)')
+    .option('--starts <n>', 'random starts of the exchange search (overrides design.starts)')
+    .action(async (studyPath: string, options: PlanOptions) => {
+      const study = applyOverrides(await loadStudy(studyPath), options);
+      for (const warning of study.warnings) process.stderr.write(`warning: ${warning}\n`);
+
+      const showProgress = Boolean(process.stderr.isTTY);
+      const { buildPlan } = await import('../core/plan/buildPlan.js');
+      const plan = sealPlan(
+        buildPlan(study, {
+          toolVersion: toolVersion(),
+          onProgress: showProgress ? (message) => process.stderr.write(`… ${message}\n`) : undefined,
+        }),
+      );
+
+      let written: string[] = [];
+      if (options.out) written = await writePlanFiles(options.out, plan, Boolean(options.force));
+
+      if (options.json) {
+        process.stdout.write(planJson(plan));
+        return;
+      }
+      process.stdout.write(planSummary(plan));
+      if (written.length > 0) {
+        process.stdout.write(`\nWrote ${written.length} files to ${options.out}:\n`);
+        for (const path of written) process.stdout.write(`  ${path}\n`);
+      } else {
+        process.stdout.write('\nNothing written: add --out <dir> for plan.json, the run sheets and the report.\n');
+      }
+    });
+}
+
+async function writePlanFiles(dir: string, plan: PlanDocument, force: boolean): Promise<string[]> {
+  const schedule = plan.schedule;
+  if (!schedule) throw new Error('plan has no run order');
+  // Loaded here, not at start-up: the workbook and chart libraries take a second to load
+  // and `tierplan tiers` or `plan --json` never need them.
+  const [{ writeOutputSet }, { runSheetCsv }, { runSheetWorkbook }, { benchWorksheetsHtml }, { managerReportHtml }] = await Promise.all([
+    import('../io/outputSet.js'),
+    import('../io/runSheetCsv.js'),
+    import('../io/runSheetWorkbook.js'),
+    import('../io/benchWorksheets.js'),
+    import('../io/managerReport.js'),
+  ]);
+  const files = [
+    { name: 'plan.json', content: planJson(plan) },
+    { name: 'runsheet.xlsx', content: await runSheetWorkbook(plan, schedule) },
+    { name: 'runsheet.csv', content: runSheetCsv(plan, schedule) },
+    { name: 'worksheets.html', content: await benchWorksheetsHtml(plan, schedule) },
+    { name: 'report.html', content: await managerReportHtml(plan, schedule) },
+  ];
+  return writeOutputSet(resolve(dir), files, { planId: plan.planId, force });
+}
+
+function applyOverrides(study: Study, options: PlanOptions): Study {
+  const design = { ...study.design };
+  if (options.seed !== undefined) design.seed = integerOption('--seed', options.seed, 0);
+  if (options.starts !== undefined) design.starts = integerOption('--starts', options.starts, 1);
+  if (options.runs !== undefined) design.runs = options.runs === 'auto' ? 'auto' : integerOption('--runs', options.runs, 1);
+  if (options.criterion !== undefined) {
+    const criterion = options.criterion.toUpperCase();
+    if (criterion !== 'D' && criterion !== 'I') throw new InputError(`--criterion must be D or I, not ${options.criterion}`);
+    design.criterion = criterion;
+  }
+  return { ...study, design };
+}
+
+function integerOption(name: string, text: string, minimum: number): number {
+  const value = Number(text);
+  if (!Number.isInteger(value) || value < minimum) throw new InputError(`${name} must be a whole number ≥ ${minimum}, not ${text}`);
+  return value;
 }

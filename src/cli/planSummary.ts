@@ -1,0 +1,62 @@
+/**
+ * The short readable summary `tierplan plan` prints: what is varied, the model and why,
+ * how many runs, how good the plan is and relative to what, and what it saves.
+ */
+import type { PlanDocument } from '../core/plan/planDocument.js';
+import { formatNumber, renderTable } from '../io/textTable.js';
+
+export function planSummary(plan: PlanDocument): string {
+  const lines: string[] = [];
+  const { metrics } = plan;
+  lines.push(plan.study.title);
+  lines.push(`Plan ${plan.planId || '(unsealed)'} · seed ${metrics.seed} · tierplan ${plan.tool.version}`);
+  lines.push('');
+
+  const tierOf = new Map(plan.tiers.factors.map((factor) => [factor.id, factor]));
+  lines.push(
+    renderTable(
+      [{ header: 'Factor' }, { header: 'Tier' }, { header: 'Total index', align: 'right' }, { header: 'Settings' }, { header: 'Unit' }],
+      plan.levels.map((level) => {
+        const tier = tierOf.get(level.id);
+        const settings = level.varied ? level.values.map((value) => formatNumber(value)).join(', ') : `fixed at ${formatNumber(level.fixedAt ?? NaN)}`;
+        return [level.id, `${level.tier}${tier?.borderline ? ' (borderline)' : ''}`, tier ? formatNumber(tier.decidedOn, 3) : null, settings, level.unit];
+      }),
+      { title: 'Operating factors' },
+    ),
+  );
+  lines.push('');
+
+  lines.push(
+    renderTable(
+      [{ header: 'Term' }, { header: 'Why it is in the model' }],
+      plan.model.explained.map((entry) => [entry.term, entry.reason]),
+      { title: `Model: p = ${metrics.p} parameters (${plan.model.source === 'tiers' ? 'derived from the tiers' : `${plan.model.source} model`})` },
+    ),
+  );
+  lines.push('');
+
+  const count = (purpose: string) => plan.runs.filter((run) => run.purpose === purpose).length;
+  const centre = count('centre');
+  const holdout = count('holdout');
+  lines.push(`Runs: ${metrics.N} fitting + ${centre} centre replicates + ${holdout} holdout = ${plan.runs.length} (${metrics.runsNote})`);
+  lines.push(`D-efficiency, textbook form 100·|X'X|^(1/p)/N in coded units: ${formatNumber(metrics.dEfficiency, 3)} %`);
+  lines.push(
+    metrics.boundEfficiency === null
+      ? `Efficiency relative to the continuous optimum: not computed — ${metrics.boundNote}`
+      : `Efficiency relative to the continuous D-optimal design: ${formatNumber(metrics.boundEfficiency, 4)} % (${metrics.boundNote})`,
+  );
+  lines.push(`Average prediction variance over the region (I-criterion): ${formatNumber(metrics.iCriterion, 3)} σ²`);
+  if (plan.schedule) lines.push(`Run order: ${plan.schedule.note}`);
+
+  const comparison = plan.comparison;
+  if (comparison) {
+    lines.push('');
+    lines.push(comparison.summary);
+  }
+  if (plan.warnings.length > 0) {
+    lines.push('');
+    lines.push('Notes:');
+    for (const warning of plan.warnings) lines.push(`  - ${warning}`);
+  }
+  return `${lines.join('\n')}\n`;
+}
