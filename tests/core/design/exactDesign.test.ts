@@ -1,0 +1,96 @@
+import { describe, expect, it } from 'vitest';
+import { findExactDesign } from '../../../src/core/design/exactDesign.js';
+import { InputError } from '../../../src/core/inputError.js';
+import { informationMatrix } from '../../../src/core/model/modelMatrix.js';
+import { iCriterion } from '../../../src/core/evaluate/designCriteria.js';
+import { regionMoments } from '../../../src/core/evaluate/regionMoments.js';
+import { firstOrderExponents, gridRegion, modelFromExponents, quadraticExponents, THREE_LEVELS, TWO_LEVELS } from './gridRegions.js';
+
+function isOrthogonal(M: Float64Array, p: number, N: number): boolean {
+  for (let a = 0; a < p; a++) for (let b = 0; b < p; b++) if (Math.abs(M[a * p + b] - (a === b ? N : 0)) > 1e-9) return false;
+  return true;
+}
+
+describe('exact design search', () => {
+  // Textbook fact: orthogonal two-level ±1 designs reach 100 % D-efficiency, and the 2^(3−1)
+  // half fraction (4 runs) is orthogonal for three main effects (Montgomery, Design and
+  // Analysis of Experiments, ch. 8 on two-level fractional factorials).
+  it('finds a 100 % D-efficient 4-run design for 3 factors, first-order', () => {
+    const model = modelFromExponents(firstOrderExponents(3));
+    const result = findExactDesign({ model, region: gridRegion(Array(3).fill(TWO_LEVELS)), runs: 4, criterion: 'D', seed: 1, starts: 10 });
+    expect(result.dEfficiency).toBeCloseTo(100, 9);
+    expect(isOrthogonal(informationMatrix(model, result.points), model.p, 4)).toBe(true);
+  });
+
+  // Textbook fact: the 2^4 full factorial (16 runs) is orthogonal for all main effects and
+  // two-factor interactions (Montgomery, ch. 6).
+  it('finds a 100 % D-efficient 16-run design for 4 factors with all two-factor interactions', () => {
+    const model = modelFromExponents(quadraticExponents(4, false));
+    const result = findExactDesign({ model, region: gridRegion(Array(4).fill(TWO_LEVELS)), runs: 16, criterion: 'D', seed: 2, starts: 10 });
+    expect(result.dEfficiency).toBeCloseTo(100, 9);
+  });
+
+  it('also reaches 100 % by coordinate exchange alone when the grid is not enumerated', () => {
+    const model = modelFromExponents(quadraticExponents(4, false));
+    const region = gridRegion(Array(4).fill(TWO_LEVELS), () => true, false);
+    const result = findExactDesign({ model, region, runs: 16, criterion: 'D', seed: 3, starts: 10 });
+    expect(result.algorithm).toMatch(/grid not enumerated/);
+    expect(result.dEfficiency).toBeCloseTo(100, 9);
+  });
+
+  it('gives identical plans for the same seed and reports every start', () => {
+    const model = modelFromExponents(quadraticExponents(3));
+    const region = gridRegion(Array(3).fill(THREE_LEVELS), () => true, false);
+    const progress: number[] = [];
+    const first = findExactDesign({ model, region, runs: 14, criterion: 'D', seed: 11, starts: 6, onProgress: (done) => progress.push(done) });
+    const second = findExactDesign({ model, region, runs: 14, criterion: 'D', seed: 11, starts: 6 });
+    expect(second.points).toEqual(first.points);
+    expect(second.perStart).toEqual(first.perStart);
+    expect(first.perStart).toHaveLength(6);
+    expect(progress).toEqual([1, 2, 3, 4, 5, 6]);
+    expect(first.logDetPerRun).toBeCloseTo(Math.max(...first.perStart), 9);
+  });
+
+  it('keeps every point feasible in a region cut by a constraint', () => {
+    const feasible = (x: ArrayLike<number>) => x[0] + x[1] + x[2] <= 1;
+    const model = modelFromExponents(quadraticExponents(3));
+    for (const enumerate of [true, false]) {
+      const region = gridRegion(Array(3).fill(THREE_LEVELS), feasible, enumerate);
+      const result = findExactDesign({ model, region, runs: 13, criterion: 'D', seed: 5, starts: 5 });
+      expect(result.points).toHaveLength(13);
+      for (const point of result.points) expect(feasible(point)).toBe(true);
+      expect(result.dEfficiency).toBeGreaterThan(0);
+    }
+  });
+
+  it('finds a plan with a lower I-criterion when asked for I-optimality', () => {
+    const model = modelFromExponents(quadraticExponents(2));
+    const region = gridRegion([THREE_LEVELS, THREE_LEVELS]);
+    const moments = regionMoments(model, region).matrix;
+    const dPlan = findExactDesign({ model, region, runs: 9, criterion: 'D', seed: 1, starts: 10, moments });
+    const iPlan = findExactDesign({ model, region, runs: 9, criterion: 'I', seed: 1, starts: 10, moments });
+    expect(iPlan.iCriterion).toBeCloseTo(iCriterion(model, iPlan.points, moments), 10);
+    expect(iPlan.iCriterion).toBeLessThanOrEqual(dPlan.iCriterion + 1e-12);
+    expect(iPlan.perStart.every((value) => value >= iPlan.iCriterion - 1e-9)).toBe(true);
+    // For N = 9 on the 3×3 grid the full factorial is both D- and I-optimal for the quadratic
+    // model only if nothing better exists; at least the I-plan must not be singular.
+    expect(Number.isFinite(iPlan.iCriterion)).toBe(true);
+  });
+
+  it('refuses fewer runs than parameters with an InputError at design.runs', () => {
+    const model = modelFromExponents(quadraticExponents(3));
+    const call = () => findExactDesign({ model, region: gridRegion(Array(3).fill(THREE_LEVELS)), runs: 9, criterion: 'D', seed: 1, starts: 2 });
+    expect(call).toThrow(InputError);
+    try {
+      call();
+    } catch (error) {
+      expect((error as InputError).location.key).toBe('design.runs');
+    }
+  });
+
+  it('refuses a region that cannot support the model (squares on two levels)', () => {
+    const model = modelFromExponents(quadraticExponents(2));
+    const call = () => findExactDesign({ model, region: gridRegion([TWO_LEVELS, TWO_LEVELS]), runs: 8, criterion: 'D', seed: 1, starts: 3 });
+    expect(call).toThrow(/cannot support the model/);
+  });
+});
