@@ -58,22 +58,22 @@ const FULL_GRID_BUDGET = 3e6;
 /** Grid points scanned (one pass each) to check the equivalence theorem on a sampled bound. */
 const SCAN_LIMIT = 1_000_000;
 /** Rounds of adding the worst-violating grid points to a sampled candidate set. */
-const AUGMENT_ROUNDS = 2;
+const AUGMENT_ROUNDS = 3;
 /** Iteration cap on a sampled candidate set: the grid scan's guarantee covers what is left. */
-const SAMPLED_MAX_ITERATIONS = 150;
+const SAMPLED_MAX_ITERATIONS = 100;
 const SUPPORT_WEIGHT = 1e-4;
 
 export function continuousDOptimal(
   model: CompiledModel,
   candidates: number[][],
-  options: { epsilon?: number; maxIterations?: number } = {},
+  options: { epsilon?: number; maxIterations?: number; initialWeights?: Float64Array } = {},
 ): ContinuousBound {
   const epsilon = options.epsilon ?? DEFAULT_EPSILON;
   const maxIterations = options.maxIterations ?? DEFAULT_MAX_ITERATIONS;
   const { p } = model;
   const n = candidates.length;
   const F = modelMatrix(model, candidates);
-  const weights = new Float64Array(n).fill(1 / n);
+  const weights = startingWeights(n, options.initialWeights);
   const variance = new Float64Array(n);
   const M = new Float64Array(p * p);
   const inverse = new Float64Array(p * p);
@@ -142,7 +142,7 @@ export function boundForRegion(
   }
 
   // Too many candidates for the multiplicative algorithm: work on a sample.
-  const sampleSize = Math.max(10 * p, 500);
+  const sampleSize = Math.max(8 * p, 400);
   const candidates = sampleCandidates(region, exactPoints, sampleSize, seed);
   let bound = continuousDOptimal(model, candidates, { maxIterations: SAMPLED_MAX_ITERATIONS });
   if (bound.logDet === Number.NEGATIVE_INFINITY) {
@@ -156,7 +156,7 @@ export function boundForRegion(
       gridMax = scan.maxVariance;
       if (scan.violators.length === 0 || round >= AUGMENT_ROUNDS) break;
       candidates.push(...scan.violators);
-      bound = continuousDOptimal(model, candidates, { maxIterations: SAMPLED_MAX_ITERATIONS });
+      bound = continuousDOptimal(model, candidates, { maxIterations: SAMPLED_MAX_ITERATIONS, initialWeights: bound.weights });
     }
   }
   const efficiency = efficiencyAgainst(bound.logDet);
@@ -181,6 +181,20 @@ export function boundForRegion(
     efficiency,
     note: `${base} — not a guaranteed bound; by the equivalence theorem over the whole grid (max variance ${gridMax.toFixed(3)}, p = ${p}) the efficiency is at least ${guaranteed.toFixed(1)} %`,
   };
+}
+
+/**
+ * Uniform weights, or a warm start: the given weights for the first candidates, the
+ * remaining candidates a uniform share 1/n each, renormalised.
+ */
+function startingWeights(n: number, initial: Float64Array | undefined): Float64Array {
+  const weights = new Float64Array(n).fill(1 / n);
+  if (!initial) return weights;
+  const kept = Math.min(initial.length, n);
+  for (let i = 0; i < kept; i++) weights[i] = initial[i] * (1 - (n - kept) / n);
+  const total = weights.reduce((sum, w) => sum + w, 0);
+  for (let i = 0; i < n; i++) weights[i] /= total;
+  return weights;
 }
 
 /** M = Σ w f f' and its inverse; returns ln det M (−Infinity when singular). */

@@ -32,7 +32,7 @@ export function coordinateExchangePass(state: ExchangeState, model: CompiledMode
         if (level === current) continue;
         trial[j] = level;
         if (!region.isFeasible(trial)) continue;
-        expandInto(model, trial, fy);
+        expandChanged(model, trial, state.rows, i * p, changedTerms[j], fy);
         const score = state.scoreChanged(fy, changedTerms[j]);
         if (score > bestScore) {
           bestScore = score;
@@ -59,4 +59,24 @@ function termsOfFactor(model: CompiledModel): Int32Array[] {
     for (let t = 0; t < model.p; t++) if (model.exponents[t * k + j] !== 0) terms.push(t);
     return Int32Array.from(terms);
   });
+}
+
+/**
+ * f(trial) for a trial that differs from design row `rowStart` only in one factor: the
+ * row's terms are copied and only the terms containing that factor are recomputed.
+ */
+function expandChanged(model: CompiledModel, trial: Float64Array, rows: Float64Array, rowStart: number, changed: Int32Array, out: Float64Array): void {
+  const { p, exponents } = model;
+  const k = model.factorIds.length;
+  for (let t = 0; t < p; t++) out[t] = rows[rowStart + t];
+  for (let m = 0; m < changed.length; m++) {
+    const t = changed[m];
+    let value = 1;
+    const base = t * k;
+    for (let j = 0; j < k; j++) {
+      const e = exponents[base + j];
+      if (e !== 0) value *= e === 1 ? trial[j] : trial[j] ** e;
+    }
+    out[t] = value;
+  }
 }
