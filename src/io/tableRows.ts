@@ -2,6 +2,9 @@
  * Reads a small table — CSV, XLSX or JSON, chosen by file extension — into a header and
  * rows of raw cells, remembering where each row sits so that messages can point at it.
  *
+ * CSV quoting follows RFC 4180 (Shafranovich, 2005, "Common Format and MIME Type for
+ * Comma-Separated Values (CSV) Files"), parsed by csv-parse; XLSX is read with exceljs.
+ *
  * Conventions fixed here:
  * - Rows are numbered as a spreadsheet shows them: the first line of the file is row 1,
  *   and comment lines (first non-blank character `#`) and blank lines still count, so
