@@ -160,7 +160,10 @@ function tierReason(tier: FactorTier, tiers: TierResult): string {
   if (tier.tier === 'critical') text = `critical (${what} ${v} ≥ ${fmt(critical)})`;
   else if (tier.tier === 'moderate') text = `moderate (${what} ${v}, between ${fmt(moderate)} and ${fmt(critical)})`;
   else text = `negligible (${what} ${v} < ${fmt(moderate)})`;
-  if (tier.borderline) text += ', borderline: its interval straddles a threshold';
+  if (tier.borderline) {
+    text += ', borderline: its interval straddles a threshold';
+    if (tier.tier === 'negligible') text += ' (give it levels in the study file to vary it anyway)';
+  }
   return text;
 }
 

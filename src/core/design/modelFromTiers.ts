@@ -67,7 +67,7 @@ export function deriveModel(
   let body: ModelTerm[];
   let source: DerivedModel['source'];
   if (spec === undefined) {
-    body = fromTiers(varied, tiers, policy, options, notes);
+    body = fromTiers(varied, levels, tiers, policy, options, notes);
     source = 'tiers';
   } else if (Array.isArray(spec)) {
     body = fromList(spec, levels, notes);
@@ -85,6 +85,7 @@ function mainEffect(level: FactorLevels, reason: string): ModelTerm {
 
 function fromTiers(
   varied: FactorLevels[],
+  levels: FactorLevels[],
   tiers: TierResult,
   policy: TierPolicy,
   options: DeriveModelOptions,
@@ -107,6 +108,7 @@ function fromTiers(
   }
 
   const variedIds = new Set(varied.map((l) => l.id));
+  const levelOf = new Map(levels.map((l) => [l.id, l]));
   const tableGiven = options.interactionTable ?? tiers.interactionPairs.length > 0;
   if (tableGiven) {
     const pairsSeen = new Set<string>();
@@ -114,9 +116,13 @@ function fromTiers(
       if (pair.index < policy.interaction - TOLERANCE) continue;
       const missing = [pair.factorA, pair.factorB].filter((id) => !variedIds.has(id));
       if (missing.length > 0) {
+        const why = missing.map((id) => {
+          const level = levelOf.get(id);
+          return level ? `${id} is fixed at ${level.fixedAt}` : `${id} is a model parameter, not a setting`;
+        });
         notes.push(
           `pair ${pair.factorA}×${pair.factorB} reaches the interaction threshold (second-order index ${fmt(pair.index)}) ` +
-            `but ${missing.join(' and ')} ${missing.length > 1 ? 'are' : 'is'} not varied in the plan, so it has no term`,
+            `but ${why.join(' and ')}, so the plan has no term for it`,
         );
         continue;
       }

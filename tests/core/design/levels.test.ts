@@ -135,6 +135,8 @@ describe('planLevels rules', () => {
     const levels = planLevels(sampleFactors(), tiers, defaults);
     expect(levels[2].reason).toContain('upper bound of aggregated total 0.20');
     expect(levels[2].reason).toContain('borderline');
+    tiers.factors[4] = { ...tiers.factors[4], borderline: true };
+    expect(planLevels(sampleFactors(), tiers, defaults)[4].reason).toContain('give it levels in the study file');
   });
 
   it('rounds the nominal of a fixed factor to its precision', () => {

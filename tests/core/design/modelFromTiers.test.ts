@@ -62,7 +62,14 @@ describe('deriveModel from the tiers (spray-dryer sample)', () => {
     expect(reasons['feed_rate^2']).toBe('curvature of feed_rate: moderate factor at 3 levels (powers up to quadratic)');
     expect(reasons['inlet_temp*feed_rate']).toBe('interaction inlet_temp×feed_rate: second-order index 0.08 ≥ 0.05 for moisture');
     expect(reasons['feed_solids*atomiser_speed']).toContain('0.07 ≥ 0.05 for d50');
-    expect(model.notes.some((n) => n.includes('e_denat×inlet_temp') && n.includes('not varied'))).toBe(true);
+    expect(model.notes).toContain(
+      'pair e_denat×inlet_temp reaches the interaction threshold (second-order index 0.05) but e_denat is a model parameter, not a setting, so the plan has no term for it',
+    );
+    // A pair with a fixed operating factor is reported the same way.
+    const tiers = sampleTiers();
+    tiers.interactionPairs.push({ factorA: 'inlet_temp', factorB: 'air_flow', index: 0.09, responses: ['moisture'] });
+    const withFixed = deriveModel(sampleLevels(), tiers, samplePolicy);
+    expect(withFixed.notes.join(' ')).toContain('air_flow is fixed at 400, so the plan has no term for it');
   });
 
   it('takes a non-empty pair list as proof of a second-order table when not told', () => {
