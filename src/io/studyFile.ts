@@ -250,7 +250,9 @@ function issueToError(issues: readonly z.core.$ZodIssue[], file: string): InputE
 
 function issueMessage(issue: z.core.$ZodIssue): string {
   const input = (issue as { input?: unknown }).input;
-  const shown = typeof input === 'string' ? `"${input}"` : JSON.stringify(input);
+  const full = typeof input === 'string' ? `"${input}"` : JSON.stringify(input) ?? String(input);
+  // Keep the one-line message short when a whole mapping or list stands where a value belongs.
+  const shown = full.length > 60 ? `${full.slice(0, 57)}…` : full;
   switch (issue.code) {
     case 'invalid_type': {
       if (input === undefined) return 'is required';
