@@ -74,8 +74,10 @@ export function findExactDesign(request: ExactDesignRequest): ExactDesignResult 
   if (!Number.isInteger(starts) || starts < 1) {
     throw new InputError(`the number of search starts must be a whole number of at least 1, not ${starts}`, { key: 'design.starts' });
   }
-  const moments = request.moments ?? regionMoments(model, region, seed).matrix;
   const candidates = fedorovCandidates(model, region, runs);
+  // Computed on first use, so an empty region is reported as such rather than as a moment failure.
+  let moments = request.moments ?? null;
+  const searchMoments = () => (moments ??= regionMoments(model, region, seed).matrix);
 
   const stream = xoroshiro128plus(seed);
   const perStart: number[] = [];
@@ -95,7 +97,7 @@ export function findExactDesign(request: ExactDesignRequest): ExactDesignResult 
       }
       start.set(point, i * k);
     }
-    const state = new ExchangeState(model, start, criterion, criterion === 'I' ? moments : null);
+    const state = new ExchangeState(model, start, criterion, criterion === 'I' ? searchMoments() : null);
     passes += improve(state, model, region, candidates);
     const singular = state.ridge > 0;
     if (criterion === 'D') perStart.push(singular ? Number.NEGATIVE_INFINITY : state.logDet - p * Math.log(runs));
@@ -125,7 +127,7 @@ export function findExactDesign(request: ExactDesignRequest): ExactDesignResult 
     points,
     logDetPerRun: logDetPerRun(model, points),
     dEfficiency: dEfficiency(model, points),
-    iCriterion: iCriterion(model, points, moments),
+    iCriterion: iCriterion(model, points, searchMoments()),
     perStart,
     algorithm: `${method}; ${criterion}-criterion; best of ${starts} random feasible starts (seed ${seed})`,
     passes,

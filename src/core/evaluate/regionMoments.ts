@@ -13,6 +13,8 @@
  *   Numer. Math. 2) with a seeded Cranley–Patterson random shift (Cranley & Patterson, 1976,
  *   "Randomization of number theoretic methods for multiple integration", SIAM J. Numer.
  *   Anal. 13), keeping the feasible points. Deterministic for a seed.
+ * - No quasi-random point feasible (a region without volume): the average over the
+ *   enumerated feasible grid points, or an InputError when there are none.
  * The box counts as uncut when the enumerated feasible grid is the whole grid, or — for grids
  * too large to enumerate — when every quasi-random test point is feasible.
  */
@@ -20,6 +22,7 @@ import { xoroshiro128plus } from 'pure-rand/generator/xoroshiro128plus';
 import { uniformFloat64 } from 'pure-rand/distribution/uniformFloat64';
 import { expandInto, type CompiledModel } from '../model/modelMatrix.js';
 import type { CandidateRegion } from '../design/designTypes.js';
+import { InputError } from '../inputError.js';
 
 /** Feasible quasi-random points averaged for a cut region. */
 const QMC_POINTS = 8192;
@@ -65,7 +68,27 @@ export function regionMoments(model: CompiledModel, region: CandidateRegion, see
     };
   }
   if (accepted === 0) {
-    throw new Error('region moments: no feasible point among the quasi-random test points');
+    if (region.points === null || region.points.length === 0) {
+      throw new InputError('no feasible setting was found in the candidate region; check the constraints and equipment limits', {
+        key: 'constraints',
+      });
+    }
+    // The constraints leave no volume (e.g. an equality written as two inequalities): average the grid.
+    for (const point of region.points) {
+      expandInto(model, point, f);
+      for (let a = 0; a < p; a++) for (let b = a; b < p; b++) sum[a * p + b] += f[a] * f[b];
+    }
+    accepted = region.points.length;
+    for (let a = 0; a < p; a++) {
+      for (let b = a; b < p; b++) {
+        sum[a * p + b] /= accepted;
+        sum[b * p + a] = sum[a * p + b];
+      }
+    }
+    return {
+      matrix: sum,
+      method: `average over the ${accepted} feasible grid points: none of ${tried} quasi-random points in the box was feasible`,
+    };
   }
   for (let a = 0; a < p; a++) {
     for (let b = a; b < p; b++) {

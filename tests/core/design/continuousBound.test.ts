@@ -89,6 +89,15 @@ describe('continuous D-optimal design', () => {
     expect(Math.abs((result.efficiency as number) - (full.efficiency as number))).toBeLessThan(0.5);
   });
 
+  it('says the sampled bound is unchecked when the grid is too large to scan', () => {
+    const model = modelFromExponents(quadraticExponents(3));
+    const region = { ...gridRegion(Array(3).fill(THREE_LEVELS), () => true, false), gridSize: 5_000_000 };
+    const exact = findExactDesign({ model, region, runs: 14, criterion: 'D', seed: 1, starts: 3 });
+    const result = boundForRegion(model, region, exact.points, 1);
+    expect(result.efficiency).not.toBeNull();
+    expect(result.note).toMatch(/not a guaranteed bound: the 5000000-point grid is too large to check/);
+  });
+
   it('returns no efficiency, with the reason, for a plan that cannot estimate the model', () => {
     const model = modelFromExponents(quadraticExponents(2));
     const result = boundForRegion(model, gridRegion([THREE_LEVELS, THREE_LEVELS]), [[0, 0], [1, 1], [1, 1], [0, 0], [1, 0], [0, 1]], 1);

@@ -88,6 +88,14 @@ describe('exact design search', () => {
     }
   });
 
+  it('refuses a region with no feasible setting with an InputError at constraints', () => {
+    const model = modelFromExponents(firstOrderExponents(2));
+    const region = gridRegion([THREE_LEVELS, THREE_LEVELS], () => false, false);
+    const call = () => findExactDesign({ model, region, runs: 4, criterion: 'D', seed: 1, starts: 1 });
+    expect(call).toThrow(InputError);
+    expect(call).toThrow(/no feasible setting/);
+  });
+
   it('refuses a region that cannot support the model (squares on two levels)', () => {
     const model = modelFromExponents(quadraticExponents(2));
     const call = () => findExactDesign({ model, region: gridRegion([TWO_LEVELS, TWO_LEVELS]), runs: 8, criterion: 'D', seed: 1, starts: 3 });

@@ -40,4 +40,13 @@ describe('region moments', () => {
     const region = gridRegion([THREE_LEVELS, THREE_LEVELS], feasible);
     expect(Array.from(regionMoments(model, region, 3).matrix)).toEqual(Array.from(regionMoments(model, region, 3).matrix));
   });
+
+  it('averages the feasible grid points when the constraints leave no volume', () => {
+    // x1 = x2 exactly: the feasible grid is the diagonal (−1,−1), (0,0), (1,1); E[x1²] = 2/3 (hand calculation).
+    const model = modelFromExponents([[0, 0], [1, 0]]);
+    const region = gridRegion([THREE_LEVELS, THREE_LEVELS], (x) => x[0] === x[1]);
+    const { matrix, method } = regionMoments(model, region);
+    expect(method).toMatch(/average over the 3 feasible grid points/);
+    expect(Array.from(matrix)).toEqual([1, 0, 0, 2 / 3]);
+  });
 });
