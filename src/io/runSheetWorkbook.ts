@@ -10,7 +10,8 @@
  *   was made, the safety caution, the factors held fixed with their values), one empty row,
  *   then the table. The panes are frozen below the table's header row; that header row is
  *   repeated on every printed page; pages are landscape and fit to one page wide; the footer
- *   carries the plan id, seed and page number.
+ *   carries the plan id, seed and page number. Each session after the first starts on a new
+ *   printed page, and a hard-to-change setting that differs from the run before is bold.
  * - Settings are numbers with a number format showing the factor's precision (`0`, `0.0`, …),
  *   the same rounding as the CSV (`runSheetTable.ts`).
  * - Response entry cells accept decimals only (data validation with an input prompt and an
@@ -157,13 +158,18 @@ function addRunSheet(workbook: ExcelJS.Workbook, plan: PlanDocument, schedule: S
   });
   header.height = 32;
 
+  const hardIds = new Set(schedule.hardToChange?.factors ?? []);
+  const sessionColumn = table.columns.findIndex((column) => column.kind === 'session');
   table.rows.forEach((values, r) => {
     const excelRow = sheet.getRow(headerRow + 1 + r);
+    const previous = r > 0 ? table.rows[r - 1] : null;
     table.columns.forEach((column, i) => {
       const cell = excelRow.getCell(i + 1);
       cell.value = values[i];
       cell.border = THIN;
       if (column.kind === 'factor') cell.numFmt = numberFormat(column.decimals ?? 0);
+      // A changed hard-to-change setting is printed bold so the technician sees the reset coming.
+      if (column.kind === 'factor' && hardIds.has(column.id!) && previous && previous[i] !== values[i]) cell.font = BOLD;
       if (column.kind === 'date') cell.numFmt = 'yyyy-mm-dd';
       if (column.kind === 'response') {
         cell.dataValidation = {
@@ -182,6 +188,8 @@ function addRunSheet(workbook: ExcelJS.Workbook, plan: PlanDocument, schedule: S
       }
     });
     excelRow.height = 20;
+    // Each session after the first starts on a new printed page: one page per day or shift.
+    if (previous && previous[sessionColumn] !== values[sessionColumn]) sheet.getRow(excelRow.number - 1).addPageBreak();
   });
 
   sheet.views = [{ state: 'frozen', xSplit: 0, ySplit: headerRow, topLeftCell: `A${headerRow + 1}`, activeCell: `A${headerRow + 1}` }];

@@ -4,6 +4,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import ExcelJS from 'exceljs';
+import JSZip from 'jszip';
 import { scheduleRuns } from '../../src/core/schedule/scheduleRuns.js';
 import { runSheetWorkbook, SHEET_NAMES } from '../../src/io/runSheetWorkbook.js';
 import { sprayDryerPlan } from '../fixtures/plan/sprayDryerPlan.js';
@@ -110,6 +111,30 @@ describe('run sheet workbook', () => {
     expect(sheet.pageSetup.fitToHeight).toBe(0);
     expect(sheet.pageSetup.printTitlesRow).toBe(`${headerRow}:${headerRow}`);
     expect(sheet.headerFooter.oddFooter).toMatch(/Plan tp-3f9a1c, seed 20261201/);
+  });
+
+  it('starts each session on a new printed page and marks hard-to-change resets in bold', async () => {
+    const { workbook, schedule, plan, buffer } = await readBack();
+    const sheet = workbook.getWorksheet(SHEET_NAMES.runSheet)!;
+    const headerRow = rowWith(sheet, 'Run no.');
+    // A break after the last run of each session but the last: sessions of 6, 6, 6 → after runs 6 and 12.
+    const lastOfSession = schedule.order.filter((r, i, all) => i + 1 < all.length && all[i + 1].session !== r.session);
+    expect(lastOfSession.map((r) => r.sequence)).toEqual([6, 12]);
+    // exceljs does not read page breaks back, so the sheet XML is read directly (jszip comes with
+    // exceljs); OOXML <brk id="n"> puts a break below row n (ECMA-376 Part 1, §18.3.1.14).
+    const xml = await (await JSZip.loadAsync(buffer)).file('xl/worksheets/sheet1.xml')!.async('string');
+    const breaks = [...xml.matchAll(/<brk id="(\d+)"/g)].map((m) => Number(m[1]));
+    expect(breaks).toEqual(lastOfSession.map((r) => headerRow + r.sequence));
+    const byPoint = new Map(plan.runs.map((r) => [r.point, r]));
+    let boldCount = 0;
+    schedule.order.forEach((scheduled, i) => {
+      const cell = sheet.getCell(headerRow + 1 + i, 5);
+      const changed = i > 0 && byPoint.get(schedule.order[i - 1].point)!.settings.inlet_temp !== byPoint.get(scheduled.point)!.settings.inlet_temp;
+      expect(Boolean(cell.font?.bold)).toBe(changed);
+      if (changed) boldCount++;
+      expect(Boolean(sheet.getCell(headerRow + 1 + i, 6).font?.bold)).toBe(false);
+    });
+    expect(boldCount).toBe(schedule.hardToChange!.levelChanges);
   });
 
   it('fills the plan record, model and tier sheets', async () => {
