@@ -40,12 +40,18 @@ export function registerPlan(program: Command): void {
 
       const showProgress = Boolean(process.stderr.isTTY);
       const { buildPlan } = await import('../core/plan/buildPlan.js');
-      const plan = sealPlan(
-        buildPlan(study, {
-          toolVersion: toolVersion(),
-          onProgress: showProgress ? (message) => process.stderr.write(`… ${message}\n`) : undefined,
-        }),
-      );
+      let plan: PlanDocument;
+      try {
+        plan = sealPlan(
+          buildPlan(study, {
+            toolVersion: toolVersion(),
+            onProgress: showProgress ? (message) => process.stderr.write(`… ${message}\n`) : undefined,
+          }),
+        );
+      } catch (error) {
+        // Core knows keys, not files: name the study file the key lives in.
+        throw error instanceof InputError ? error.inFile(studyPath) : error;
+      }
 
       let written: string[] = [];
       if (options.out) written = await writePlanFiles(options.out, plan, Boolean(options.force));

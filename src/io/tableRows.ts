@@ -24,7 +24,7 @@
 import { readFile, stat } from 'node:fs/promises';
 import { extname } from 'node:path';
 import { parse as parseCsv } from 'csv-parse/sync';
-import ExcelJS from 'exceljs';
+import type ExcelJS from 'exceljs';
 import { InputError, type InputLocation } from '../core/inputError.js';
 
 export type CellValue = string | number | null;
@@ -230,7 +230,9 @@ function countOutsideQuotes(line: string, separator: string): number {
 // ---------------------------------------------------------------------------------- XLSX
 
 async function readWorkbook(path: string, file: string, sheetNames: readonly string[]): Promise<TableRows> {
-  const workbook = new ExcelJS.Workbook();
+  // exceljs takes a noticeable part of a second to load; only workbook users pay for it.
+  const { default: excel } = await import('exceljs');
+  const workbook = new excel.Workbook();
   try {
     await workbook.xlsx.readFile(path);
   } catch (error) {
