@@ -124,6 +124,11 @@ function levelsOf(
     };
   }
 
+  if (!(factor.high > factor.low)) {
+    throw new InputError(`a varied factor needs high above low (got ${factor.low}–${factor.high})`, {
+      key: `factors[${index}].high`,
+    });
+  }
   let values: number[];
   let how: string;
   if (Array.isArray(override)) {
@@ -131,7 +136,7 @@ function levelsOf(
     how = `${values.length} levels listed in the study file`;
   } else {
     const count = override ?? (tier.tier === 'critical' ? defaults.critical : defaults.moderate);
-    const key = override === undefined ? 'design.levels' : `factors[${index}].levels`;
+    const key = override === undefined ? `design.levels.${tier.tier}` : `factors[${index}].levels`;
     if (!Number.isInteger(count) || count < 2) {
       throw new InputError(`a varied factor needs a whole number of at least 2 levels (got ${count})`, { key });
     }

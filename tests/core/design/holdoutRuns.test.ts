@@ -8,6 +8,7 @@ import { InputError } from '../../../src/core/inputError.js';
 import type { Factor } from '../../../src/core/study.js';
 import { DEFAULT_DESIGN } from '../../../src/core/study.js';
 import { sampleConstraint, sampleFactors, sampleTiers } from './sprayDryerFixture.js';
+import reference from '../../reference/holdouts/holdouts.json' with { type: 'json' };
 
 function square(k: number, precision: number): { factors: Factor[]; tiers: ReturnType<typeof sampleTiers> } {
   const factors: Factor[] = Array.from({ length: k }, (_, i) => ({
@@ -145,6 +146,27 @@ describe('chooseHoldoutRuns on the spray-dryer sample', () => {
     expect(ours).toBeGreaterThan(total / trials);
     expect(beaten / trials).toBeLessThan(0.1);
   });
+});
+
+describe('chooseHoldoutRuns against an independent reference', () => {
+  // tests/reference/holdouts/generate.py rebuilds the candidate set in Python and measures distances with
+  // scipy.spatial.distance.cdist (SciPy 1.17): free candidate count and the first maximin distance and points.
+  const factors = sampleFactors();
+  const levels = planLevels(factors, sampleTiers(), DEFAULT_DESIGN.levels);
+  for (const ref of reference.cases) {
+    it(`matches for ${ref.constraint}`, () => {
+      const region = buildCandidateRegion(factors, levels, [ref.constraint]);
+      const corners = region.points!.filter((p) => p.every((x) => Math.abs(x) === 1));
+      expect(corners).toHaveLength(ref.corners);
+      const occupied = [...corners, [0, 0, 0, 0]];
+      const all = chooseHoldoutRuns(region, occupied, 1000, 1, { atMost: true });
+      expect(all).toHaveLength(ref.freeCandidates);
+      const [first] = chooseHoldoutRuns(region, occupied, 1, 1);
+      expect(nearestDistance(first, occupied)).toBeCloseTo(ref.firstMaximinDistance, 10);
+      const match = ref.firstMaximinPoints.some((p) => p.every((x, j) => Math.abs(x - first[j]) < 1e-9));
+      expect(match).toBe(true);
+    });
+  }
 });
 
 describe('chooseHoldoutRuns on a grid too large to enumerate', () => {

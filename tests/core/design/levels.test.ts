@@ -23,7 +23,8 @@ function inputError(fn: () => unknown): InputError {
 }
 
 describe('coding', () => {
-  // Coded units: low → −1, high → +1, linear (Montgomery, Design and Analysis of Experiments, 9th ed., §6.2).
+  // Coded units: low → −1, high → +1, linear (Montgomery, Design and Analysis of Experiments, 9th ed., ch. 6,
+  // coded variables; chapter from memory).
   it('maps low to −1, high to +1 and the midpoint to 0', () => {
     const f = { low: 160, high: 200 };
     expect(toCoded(f, 160)).toBe(-1);
@@ -199,6 +200,15 @@ describe('planLevels errors', () => {
       planLevels(withFactor('air_flow', { limits: { low: 300, high: 380 } }), sampleTiers(), defaults),
     );
     expect(fixed.message).toContain('refused: outside the rated range');
+  });
+
+  it('refuses a bad default level count and an empty range', () => {
+    expect(inputError(() => planLevels(sampleFactors(), sampleTiers(), { critical: 1, moderate: 3 })).location.key).toBe(
+      'design.levels.critical',
+    );
+    expect(inputError(() => planLevels(withFactor('feed_rate', { high: 8 }), sampleTiers(), defaults)).location.key).toBe(
+      'factors[2].high',
+    );
   });
 
   it('refuses an operating factor the tiers do not know', () => {

@@ -136,7 +136,9 @@ describe('deriveModel presets', () => {
 
   it('quadratic: squares too, skipped with a note on a 2-level factor', () => {
     const full = deriveModel(sampleLevels(), sampleTiers(), samplePolicy, 'quadratic');
-    expect(full.terms).toHaveLength(1 + 4 + 4 + 6); // (k+1)(k+2)/2 = 15 for k = 4 (Box & Draper, 2007, ch. 7)
+    // A full second-order model in k factors has (k+1)(k+2)/2 parameters: 15 for k = 4 (Box & Draper, Response
+    // Surfaces, Mixtures, and Ridge Analyses, 2nd ed., 2007).
+    expect(full.terms).toHaveLength(1 + 4 + 4 + 6);
     const twoLevel = deriveModel(sampleLevels({ atomiser_speed: { levels: 2 } }), sampleTiers(), samplePolicy, 'quadratic');
     expect(labels(twoLevel.terms)).not.toContain('atomiser_speed^2');
     expect(twoLevel.notes[0]).toContain('atomiser_speed has only 2 levels');
