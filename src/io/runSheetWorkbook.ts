@@ -336,11 +336,12 @@ function addComparisonSheet(workbook: ExcelJS.Workbook, plan: PlanDocument): voi
     `Power for an effect of ${comparison.delta} σ at α = ${comparison.alpha}. Prediction variance: ${comparison.predictionVarianceMethod}.`;
   const money = comparison.currency ? ` [${comparison.currency}]` : '';
   tableHeader(sheet, 5, [
-    'Plan', 'Runs', 'Fits the model', 'Terms it cannot estimate', 'D-efficiency (%), textbook',
+    'Plan', 'Runs', 'Fits the model', 'Terms it cannot estimate', 'D-efficiency (%), textbook: relative to an orthogonal ±1 design of the same size',
     'Information per run, relative to proposed', 'Total information, relative to proposed', 'Average prediction variance (σ²)',
     'Lowest power over terms', `Cost${money}`, 'Bench hours', 'Hard-to-change level changes', 'Runs saved by the proposed plan',
-    'Runs saved (%)', `Cost saved${money}`, 'Cost saved (%)', 'Verdict',
+    "Runs saved (% of this plan's runs)", `Cost saved${money}`, "Cost saved (% of this plan's cost)", 'Verdict',
   ]);
+  sheet.getRow(5).height = 75;
   comparison.comparators.forEach((c, i) => {
     const r = sheet.getRow(6 + i);
     r.values = [
