@@ -53,7 +53,7 @@ export function buildPlan(study: Study, options: BuildPlanOptions): PlanDocument
   }
   const factorIds = varied.map((level) => level.id);
 
-  const derived = deriveModel(levels, tiers, study.policy, design.model);
+  const derived = deriveModel(levels, tiers, study.policy, design.model, { interactionTable: study.interactions.length > 0 });
   const model = compileModel(derived.terms, factorIds);
   const planModel: PlanModel = {
     intercept: true,
@@ -62,7 +62,7 @@ export function buildPlan(study: Study, options: BuildPlanOptions): PlanDocument
     source: derived.source,
   };
 
-  const region = buildCandidateRegion(study.factors, levels, study.constraints);
+  const region = buildCandidateRegion(study.factors, levels, study.constraints, { seed: design.seed });
 
   const runCount = design.runs === 'auto' ? defaultRunCount(model.p) : { runs: design.runs, note: 'set in the study (design.runs)' };
   if (runCount.runs < model.p) {
@@ -89,11 +89,12 @@ export function buildPlan(study: Study, options: BuildPlanOptions): PlanDocument
   progress('computing the continuous D-optimal bound');
   const bound = boundForRegion(model, region, fitPoints, design.seed);
 
-  const centre = centrePoint(region, levels, study.factors);
+  const centre = centrePoint(region, levels, study.factors, { seed: design.seed });
   const centrePoints = Array.from({ length: design.centreRuns }, () => centre.coded);
   const holdoutCount = design.holdoutRuns === 'auto' ? defaultHoldoutCount(fitPoints.length) : design.holdoutRuns;
   const occupied = design.centreRuns > 0 ? [...fitPoints, centre.coded] : fitPoints;
-  const holdoutPoints = holdoutCount > 0 ? chooseHoldoutRuns(region, occupied, holdoutCount, design.seed) : [];
+  const holdoutPoints =
+    holdoutCount > 0 ? chooseHoldoutRuns(region, occupied, holdoutCount, design.seed, { atMost: design.holdoutRuns === 'auto' }) : [];
 
   const runs: PlannedRun[] = [
     ...fitPoints.map((point, i) => plannedRun(`F${pad(i + 1, fitPoints.length)}`, 'fit', point, varied, levels, study)),
