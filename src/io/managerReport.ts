@@ -98,6 +98,8 @@ interface ComparatorView {
   proposed: boolean;
   runs: string;
   fits: string;
+  /** Short form for the main table, e.g. "misses 2 terms". */
+  missingShort: string;
   missing: string;
   dEfficiency: string;
   informationPerRun: string;
@@ -127,6 +129,7 @@ function comparatorView(row: ComparatorRow, currency: string | null): Comparator
     proposed: row.id === 'proposed',
     runs: row.runs === null ? DASH : grouped(row.runs),
     fits,
+    missingShort: row.runs === null || row.missingTerms.length === 0 ? '' : `misses ${plural(row.missingTerms.length, 'term')}`,
     missing: row.runs === null ? (row.reason ?? '') : row.missingTerms.length ? `cannot estimate ${row.missingTerms.join(', ')}` : '',
     dEfficiency: fixed(row.dEfficiency, 1),
     informationPerRun: fixed(row.relativeInformationPerRun, 2),
