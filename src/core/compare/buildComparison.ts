@@ -157,8 +157,19 @@ export function buildComparison(plan: PlanDocument, options: ComparisonOptions =
       costSaved: null,
       percentCostSaved: null,
       verdict: '',
+      ...(evaluation?.minPower != null ? { minPowerTerm: weakestTerm(evaluation) } : {}),
     };
   }
+}
+
+/** The non-intercept term with the smallest power (first in model order on ties). */
+function weakestTerm(evaluation: DesignEvaluation): string | undefined {
+  let weakest: { term: string; power: number } | undefined;
+  for (const term of evaluation.terms) {
+    if (term.power === null) continue;
+    if (!weakest || term.power < weakest.power) weakest = { term: term.term, power: term.power };
+  }
+  return weakest?.term;
 }
 
 function unbuiltRow(design: ComparatorDesign): ComparatorRow {

@@ -37,6 +37,8 @@ export interface ComparatorRow {
   averagePredictionVariance: number | null;
   /** Smallest power over the model terms (intercept excluded). */
   minPower: number | null;
+  /** The term whose power is `minPower` (optional addition). */
+  minPowerTerm?: string;
   cost: number | null;
   hours: number | null;
   /** Level changes of hard-to-change factors, when the study marks any. */

@@ -22,7 +22,7 @@ export function proposedVerdict(row: ComparatorRow, fittingRuns: number, holdout
   const power =
     row.minPower === null
       ? ' No residual degrees of freedom are left to test the terms.'
-      : ` Every term is detected with power ≥ ${percent(row.minPower * 100)} % when it moves the response by ${context.delta}σ.`;
+      : ` Every term is detected with power ≥ ${percent(row.minPower * 100)} % when it moves the response by ${context.delta}σ${weakest(row)}.`;
   return `Estimates all ${context.termCount} model terms from ${fittingRuns} fitting runs${holdout}.${power}`;
 }
 
@@ -54,7 +54,9 @@ export function comparisonSummary(comparison: Omit<Comparison, 'summary'>): stri
   const termCount = comparison.modelTerms.length;
   const still = proposed.fitsModel
     ? `It still estimates all ${termCount} model terms${
-        proposed.minPower === null ? '' : `, each with power ≥ ${percent(proposed.minPower * 100)} % for an effect of ${comparison.delta}σ`
+        proposed.minPower === null
+          ? ''
+          : `, each with power ≥ ${percent(proposed.minPower * 100)} % for an effect of ${comparison.delta}σ${weakest(proposed)}`
       }`
     : `It cannot estimate ${describeTerms(proposed.missingTerms)}`;
   if (!reference || reference.runs === null) return `The proposed plan needs ${proposed.runs} runs. ${still}.`;
@@ -99,6 +101,10 @@ export function describeTerms(terms: readonly string[]): string {
   if (interactions.length) parts.push(`the interaction${interactions.length > 1 ? 's' : ''} ${list(interactions)}`);
   if (others.length) parts.push(`the term${others.length > 1 ? 's' : ''} ${list(others)}`);
   return list(parts);
+}
+
+function weakest(row: ComparatorRow): string {
+  return row.minPowerTerm ? ` (lowest: ${row.minPowerTerm})` : '';
 }
 
 function list(items: readonly string[]): string {

@@ -109,6 +109,11 @@ describe('buildComparison: 3 varied factors, quadratic model, 1 fixed factor', (
       for (let i = 1; i < curve.variance.length; i++) expect(curve.variance[i]).toBeGreaterThanOrEqual(curve.variance[i - 1]);
     }
     expect(rowOf('proposed').verdict).toMatch(/^Estimates all 9 model terms from 16 fitting runs, plus 2 holdout runs/);
+    // Noncentrality δ/range/se (termPower.ts): interactions 1/(1/√8) = 2.83 (orthogonal ±1
+    // column over the 8 cube runs), main effects 1/(1/√10) = 3.16, squared terms 2/0.6159 = 3.25
+    // (se from numpy on these 16 points): the interactions are the weakest terms.
+    expect(rowOf('proposed').minPowerTerm).toMatch(/^[abc]\*[abc]$/);
+    expect(rowOf('proposed').verdict).toContain(`(lowest: ${rowOf('proposed').minPowerTerm})`);
     expect(comparison.summary).toMatch(/^The proposed plan needs 18 runs where the conventional full factorial needs 18: as many runs, costing EUR 100 more\./);
     expect(comparison.summary).toMatch(/cannot estimate the squared terms of b and c/);
   });
