@@ -90,8 +90,8 @@ export async function indexChartSvg(tiers: TierResult): Promise<string> {
             align: { value: 'right' },
             baseline: { value: 'middle' },
             fontSize: { value: 10 },
-            // Headless vega guesses text width at 0.8 em per character, so this allows about 47 characters.
-            limit: { value: 380 },
+            // Headless vega guesses text width at 0.8 em per character, so this allows about 55 characters.
+            limit: { value: 440 },
           },
         },
       },
