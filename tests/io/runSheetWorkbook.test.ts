@@ -37,6 +37,21 @@ describe('run sheet workbook', () => {
     expect(workbook.modified.toISOString()).toBe(plan.createdAt);
   });
 
+  it('gives the same workbook content for the same plan and seed (only zip entry dates may differ)', async () => {
+    const unzip = async (buffer: Buffer) => {
+      const zip = await JSZip.loadAsync(buffer);
+      const out: Record<string, string> = {};
+      for (const name of Object.keys(zip.files).sort()) if (!zip.files[name].dir) out[name] = await zip.files[name].async('string');
+      return out;
+    };
+    const first = await unzip((await readBack()).buffer);
+    const second = await unzip((await readBack()).buffer);
+    expect(Object.keys(first)).toContain('docProps/core.xml');
+    expect(second).toEqual(first);
+    const other = await unzip((await readBack(undefined, 7)).buffer);
+    expect(other['xl/worksheets/sheet1.xml']).not.toBe(first['xl/worksheets/sheet1.xml']);
+  });
+
   it('writes the header block with plan id, seed, caution and the fixed factors', async () => {
     const { workbook, plan, schedule } = await readBack();
     const sheet = workbook.getWorksheet(SHEET_NAMES.runSheet)!;
