@@ -4,8 +4,8 @@
  * "The equivalence of two extremum problems", Canadian J. Mathematics 12; Myers, Montgomery &
  * Anderson-Cook, 2016, "Response Surface Methodology", 4th ed., §8.2).
  *
- * The maximum is taken over the enumerated candidate points when the region lists them;
- * otherwise over the fixed Halton sample of predictionVariance.ts, the design points and the
+ * The maximum is taken over the enumerated candidate points when the region lists at most
+ * `MAX_CANDIDATES` of them; otherwise over the fixed Halton sample of predictionVariance.ts, the design points and the
  * feasible vertices of the coded cube (where polynomial prediction variance usually peaks).
  * A maximum over a finite set can only miss the true maximum from below, so the figure is an
  * upper bound on the true G-efficiency; the note says which set was used.
@@ -14,6 +14,8 @@ import type { CompiledModel } from '../model/modelMatrix.js';
 import type { CandidateRegion } from '../design/designTypes.js';
 import { predictionVariances } from './predictionVariance.js';
 
+/** Largest candidate list searched point by point (each point costs p² operations). */
+const MAX_CANDIDATES = 20_000;
 /** Cube vertices are added only up to this many factors (2^12 = 4096 points). */
 const MAX_VERTEX_FACTORS = 12;
 
@@ -35,7 +37,7 @@ export function gEfficiency(
   const k = model.factorIds.length;
   let points: ArrayLike<number>[];
   let note: string;
-  if (region?.points) {
+  if (region?.points && region.points.length <= MAX_CANDIDATES) {
     points = region.points;
     note = `maximum over all ${region.points.length} candidate points`;
   } else {
