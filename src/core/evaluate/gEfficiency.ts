@@ -5,8 +5,9 @@
  * Anderson-Cook, 2016, "Response Surface Methodology", 4th ed., §8.2).
  *
  * The maximum is taken over the enumerated candidate points when the region lists at most
- * `MAX_CANDIDATES` of them; otherwise over the fixed Halton sample of predictionVariance.ts, the design points and the
- * feasible vertices of the coded cube (where polynomial prediction variance usually peaks).
+ * `MAX_CANDIDATES` of them; otherwise over the fixed Halton sample of predictionVariance.ts,
+ * the design points and the feasible vertices of the coded cube (where polynomial prediction
+ * variance usually peaks).
  * A maximum over a finite set can only miss the true maximum from below, so the figure is an
  * upper bound on the true G-efficiency; the note says which set was used.
  */
