@@ -135,7 +135,7 @@ function comparatorView(row: ComparatorRow, currency: string | null): Comparator
     informationPerRun: fixed(row.relativeInformationPerRun, 2),
     informationTotal: fixed(row.relativeInformationTotal, 2),
     predictionVariance: fixed(row.averagePredictionVariance, 3),
-    minPower: row.minPower === null ? DASH : `${fixed(row.minPower * 100, 0)} %`,
+    minPower: row.minPower === null ? DASH : `${fixed(row.minPower * 100, 0)} %${row.minPowerTerm ? ` (${row.minPowerTerm})` : ''}`,
     cost: money(row.cost, currency),
     hours: grouped(row.hours, 0),
     runsSaved: saved,

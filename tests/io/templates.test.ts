@@ -159,6 +159,10 @@ describe('manager report', () => {
     // One table row per comparator, the proposed one highlighted.
     expect(count(html, 'data-comparator="')).toBe(plan.comparison!.comparators.length);
     expect(html).toContain('<tr class="proposed" data-comparator="proposed">');
+    // Power 0.71 → 71 %; the weakest term is named when the comparison gives it.
+    expect(html).toContain('<td class="num">71 %</td>');
+    plan.comparison!.comparators[0].minPowerTerm = 'feed_solids^2';
+    expect(await managerReportHtml(plan, plan.schedule)).toContain('<td class="num">71 % (feed_solids^2)</td>');
     expect(html).toContain('cannot estimate inlet_temp^2, feed_solids^2');
   });
 
