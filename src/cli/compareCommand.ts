@@ -115,6 +115,10 @@ export function comparisonText(comparison: Comparison, plan: PlanDocument): stri
   );
   const lines: string[] = [plan.study.title, '', table.replace(/\n+$/, ''), ''];
   lines.push(
+    'Every plan is judged on the runs its model is fitted to: for the proposed plan its model and centre runs ' +
+      '(holdout runs only add cost and time), for the others all their runs.',
+  );
+  lines.push(
     'Info/run: information per run relative to the proposed plan, (det M / det M_proposed)^(1/p). ' +
       'Saved runs: runs the proposed plan saves against that plan (negative: the other plan is smaller).',
   );
