@@ -13,9 +13,11 @@
  *   factor's setting, inside that by the second, and so on. Group order is random at each level,
  *   except that an inner group continuing the previous run's inner setting is put first, which
  *   saves one change of that inner factor without touching the outer ones.
- * - Centre replicates belong to the group whose setting they share; when no plan point shares
- *   the centre setting they form their own group. Inside a group they are spread evenly
- *   (see `centreSpread.ts`).
+ * - Centre replicates belong to the group whose setting they share, spread evenly inside it
+ *   (see `centreSpread.ts`). When no other run shares the centre setting, each replicate becomes
+ *   a one-run block of its own and the blocks are spread over the campaign (first, middle, last
+ *   block for three): a drift check is worth the two extra resets each costs, and replicates run
+ *   back to back would check nothing.
  * - A level change is a pair of consecutive runs whose settings of a factor differ; the first
  *   set-up of the campaign is not a change. Changes are summed over the hard-to-change factors.
  *   With one such factor, grouping reaches the minimum: (distinct settings − 1).
@@ -91,7 +93,25 @@ export function groupByHardToChange<T extends GroupableRun>(
   };
 
   arrange(runs, 0);
-  return groups;
+  return spreadLoneCentres(groups, factorIds[0]);
+}
+
+/** Replaces a block made only of centre replicates by one-run blocks at evenly spread places. */
+function spreadLoneCentres<T extends GroupableRun>(groups: T[][], outerFactor: string): T[][] {
+  const lone = groups.findIndex((group) => group.length > 1 && group.every((run) => run.purpose === 'centre'));
+  if (lone < 0) return groups;
+  const centres = groups[lone];
+  const rest = groups.filter((_, index) => index !== lone);
+  // Only a block that is alone in the outermost setting can move without splitting another block.
+  const outerKey = settingKey(centres[0].settings[outerFactor]);
+  if (rest.some((group) => settingKey(group[0].settings[outerFactor]) === outerKey)) return groups;
+  const total = rest.length + centres.length;
+  const slots = new Set(spreadSlots(centres.length, total));
+  const out: T[][] = [];
+  let nextCentre = 0;
+  let nextRest = 0;
+  for (let slot = 0; slot < total; slot++) out.push(slots.has(slot) ? [centres[nextCentre++]] : rest[nextRest++]);
+  return out;
 }
 
 /** Changes of the given factors along the sequence; the first set-up is not counted. */

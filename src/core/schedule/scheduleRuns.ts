@@ -84,7 +84,7 @@ export function scheduleRuns(plan: Pick<PlanDocument, 'runs' | 'levels' | 'study
         `are done together: ${groupCount} block${groupCount === 1 ? '' : 's'} in random order, runs inside each block in random order ` +
         `(restricted randomisation; analyse the blocks as whole plots). ` +
         `${levelChanges} setting change${levelChanges === 1 ? '' : 's'}${fewest !== null && fewest === levelChanges ? ' (the fewest possible)' : ''}, ` +
-        `not counting the first set-up${splitGroups > 0 ? `; ${splitGroups} block${splitGroups === 1 ? '' : 's'} had to continue into the next ${sessionLabel.toLowerCase()}` : ''}.`,
+        `not counting the first set-up${centresSpreadAlone(sequence) ? '; the centre repeats share no setting with other runs, so each is its own block, spread over the campaign to check drift' : ''}${splitGroups > 0 ? `; ${splitGroups} block${splitGroups === 1 ? '' : 's'} had to continue into the next ${sessionLabel.toLowerCase()}` : ''}.`,
     };
   }
 
@@ -113,6 +113,15 @@ function orderNote(order: ScheduledRun[], sizes: number[], label: string, seed: 
     text += ' Validation runs are mixed in among the others.';
   }
   return text;
+}
+
+/** True when the centre replicates are not next to one another (moved apart as one-run blocks). */
+function centresSpreadAlone(sequence: GroupableRun[]): boolean {
+  const at = sequence.flatMap((run, index) => (run.purpose === 'centre' ? [index] : []));
+  return at.length > 1 && at.every((index, k) => k === 0 || index - at[k - 1] > 1) && at.every((index) => {
+    const key = sequence[index].settings;
+    return sequence.every((other) => other.purpose === 'centre' || Object.keys(key).some((id) => other.settings[id] !== key[id]));
+  });
 }
 
 function listNames(names: string[]): string {

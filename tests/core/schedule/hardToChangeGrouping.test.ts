@@ -60,3 +60,27 @@ describe('grouping by hard-to-change settings', () => {
     }
   });
 });
+
+describe('centre replicates with a hard-to-change setting of their own', () => {
+  // Two fit settings (160, 200) and three centres at 180 that no other run shares.
+  const run = (point: string, purpose: 'fit' | 'centre', t: number) => ({ point, purpose, settings: { t } });
+  const runs = [
+    run('F1', 'fit', 160),
+    run('F2', 'fit', 160),
+    run('F3', 'fit', 200),
+    run('F4', 'fit', 200),
+    run('C1', 'centre', 180),
+    run('C2', 'centre', 180),
+    run('C3', 'centre', 180),
+  ];
+
+  it('are spread as one-run blocks at the start, middle and end, not run back to back', () => {
+    for (const seed of [1, 2, 3]) {
+      const groups = groupByHardToChange(runs, ['t'], createRandom(seed));
+      const kinds = groups.map((group) => group.map((r) => r.purpose).join(','));
+      expect(kinds).toEqual(['centre', 'fit,fit', 'centre', 'fit,fit', 'centre']);
+      // Drift check costs resets: 4 changes instead of the 2 of a grouped order (hand-counted).
+      expect(countLevelChanges(groups.flat(), ['t'])).toBe(4);
+    }
+  });
+});
