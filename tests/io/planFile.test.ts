@@ -22,7 +22,8 @@ const unsealed = {
 describe('sealPlan', () => {
   it('does not depend on the creation time or on key order', () => {
     const a = sealPlan(unsealed, new Date('2026-01-01T00:00:00Z'));
-    const b = sealPlan({ metrics: unsealed.metrics, ...unsealed }, new Date('2027-06-01T00:00:00Z'));
+    const reordered = Object.fromEntries(Object.entries(unsealed).reverse()) as unknown as PlanDocument;
+    const b = sealPlan(reordered, new Date('2027-06-01T00:00:00Z'));
     expect(a.checksum).toBe(b.checksum);
     expect(a.planId).toBe(`TP-${a.checksum.slice(0, 10)}`);
     expect(a.createdAt).toBe('2026-01-01T00:00:00.000Z');
