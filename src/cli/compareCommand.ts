@@ -10,9 +10,7 @@ import { readFile } from 'node:fs/promises';
 import { extname } from 'node:path';
 import type { Command } from 'commander';
 import { InputError } from '../core/inputError.js';
-import { buildPlan } from '../core/plan/buildPlan.js';
 import type { PlanDocument } from '../core/plan/planDocument.js';
-import { buildComparison } from '../core/compare/buildComparison.js';
 import type { ComparatorRow, Comparison } from '../core/compare/comparisonTypes.js';
 import { loadStudy } from '../io/studyFile.js';
 import { readPlanFile } from '../io/planFile.js';
@@ -38,6 +36,8 @@ export function registerCompare(program: Command): void {
       const alpha = positiveNumber(options.alpha, 'alpha');
       if (alpha >= 1) throw new InputError(`--alpha must lie between 0 and 1, got ${options.alpha}`, { key: 'alpha' });
       const plan = await planFrom(file);
+      // The design and comparison modules load mathjs and friends: only when a command needs them.
+      const { buildComparison } = await import('../core/compare/buildComparison.js');
       const comparison = buildComparison(plan, { delta, alpha });
       process.stdout.write(options.json ? `${JSON.stringify(comparison, null, 2)}\n` : comparisonText(comparison, plan));
     });
@@ -48,11 +48,16 @@ async function planFrom(file: string): Promise<PlanDocument> {
   const study = await loadStudy(file);
   for (const warning of study.warnings) process.stderr.write(`warning: ${warning}\n`);
   const showProgress = Boolean(process.stderr.isTTY);
-  return buildPlan(study, {
-    toolVersion: toolVersion(),
-    skipComparison: true,
-    onProgress: showProgress ? (message) => process.stderr.write(`… ${message}\n`) : undefined,
-  });
+  const { buildPlan } = await import('../core/plan/buildPlan.js');
+  try {
+    return buildPlan(study, {
+      toolVersion: toolVersion(),
+      skipComparison: true,
+      onProgress: showProgress ? (message) => process.stderr.write(`… ${message}\n`) : undefined,
+    });
+  } catch (error) {
+    throw error instanceof InputError ? error.inFile(file) : error;
+  }
 }
 
 /** A JSON file whose top level has `formatVersion` is a plan document. */
