@@ -19,6 +19,7 @@
  */
 import type { AggregateRule, IndexRow, Response } from '../study.js';
 import { InputError } from '../inputError.js';
+import { max, mean } from 'simple-statistics';
 
 export interface AggregatedIndices {
   total: number;
@@ -40,8 +41,8 @@ export function aggregateValues(values: readonly number[], weights: readonly num
 
 function aggregateExactly(values: readonly number[], weights: readonly number[], rule: AggregateRule): number {
   if (values.length === 0) return 0;
-  if (rule === 'max') return Math.max(...values);
-  if (rule === 'mean') return values.reduce((sum, value) => sum + value, 0) / values.length;
+  if (rule === 'max') return max(values as number[]);
+  if (rule === 'mean') return mean(values as number[]);
   let weightSum = 0;
   let weighted = 0;
   values.forEach((value, i) => {
