@@ -62,6 +62,8 @@ const AUGMENT_ROUNDS = 3;
 /** Iteration cap on a sampled candidate set: the grid scan's guarantee covers what is left. */
 const SAMPLED_MAX_ITERATIONS = 100;
 const SUPPORT_WEIGHT = 1e-4;
+/** Between scan rounds, candidates below this share of the uniform weight 1/n are dropped. */
+const PRUNE_SHARE = 0.05;
 
 export function continuousDOptimal(
   model: CompiledModel,
@@ -143,7 +145,7 @@ export function boundForRegion(
 
   // Too many candidates for the multiplicative algorithm: work on a sample.
   const sampleSize = Math.max(8 * p, 400);
-  const candidates = sampleCandidates(region, exactPoints, sampleSize, seed);
+  let candidates = sampleCandidates(region, exactPoints, sampleSize, seed);
   let bound = continuousDOptimal(model, candidates, { maxIterations: SAMPLED_MAX_ITERATIONS });
   if (bound.logDet === Number.NEGATIVE_INFINITY) {
     return { bound: null, efficiency: null, note: 'no bound: the sampled feasible grid points cannot support the model' };
@@ -155,12 +157,17 @@ export function boundForRegion(
       const scan = scanGrid(model, region, candidates, bound.weights, p * (1 + DEFAULT_EPSILON), 5 * p);
       gridMax = scan.maxVariance;
       if (scan.violators.length === 0 || round >= AUGMENT_ROUNDS) break;
-      candidates.push(...scan.violators);
-      bound = continuousDOptimal(model, candidates, { maxIterations: SAMPLED_MAX_ITERATIONS, initialWeights: bound.weights });
+      // Drop candidates the algorithm has all but abandoned (the next scan re-adds any that matter).
+      const floor = PRUNE_SHARE / candidates.length;
+      const kept = candidates.flatMap((point, i) => (bound.weights[i] > floor ? [i] : []));
+      const keys = new Set(kept.map((i) => candidates[i].join(',')));
+      const initialWeights = Float64Array.from(kept, (i) => bound.weights[i]);
+      candidates = [...kept.map((i) => candidates[i]), ...scan.violators.filter((point) => !keys.has(point.join(',')))];
+      bound = continuousDOptimal(model, candidates, { maxIterations: SAMPLED_MAX_ITERATIONS, initialWeights });
     }
   }
   const efficiency = efficiencyAgainst(bound.logDet);
-  const base = `relative to the best continuous design on a sample of ${candidates.length} feasible grid points (seed ${seed})`;
+  const base = `relative to the best continuous design found on ${candidates.length} feasible grid points (a seeded sample, seed ${seed}${scannable ? ', refined by scans of the whole grid' : ''})`;
   if (gridMax === null) {
     return {
       bound,
