@@ -2,7 +2,7 @@
  * `tierplan plan <study>`: the whole job — tiers, levels, model, optimal design, centre and
  * holdout runs, run order, comparison — and the files the bench and the manager use.
  */
-import { resolve } from 'node:path';
+import { relative, resolve } from 'node:path';
 import type { Command } from 'commander';
 import { InputError } from '../core/inputError.js';
 import type { PlanDocument } from '../core/plan/planDocument.js';
@@ -63,7 +63,7 @@ export function registerPlan(program: Command): void {
       process.stdout.write(planSummary(plan));
       if (written.length > 0) {
         process.stdout.write(`\nWrote ${written.length} files to ${options.out}:\n`);
-        for (const path of written) process.stdout.write(`  ${path}\n`);
+        for (const path of written) process.stdout.write(`  ${relative(process.cwd(), path) || path}\n`);
       } else {
         process.stdout.write('\nNothing written: add --out <dir> for plan.json, the run sheets and the report.\n');
       }
