@@ -43,7 +43,7 @@ export function planSummary(plan: PlanDocument): string {
   lines.push(
     metrics.boundEfficiency === null
       ? `Efficiency relative to the continuous optimum: not computed — ${metrics.boundNote}`
-      : `Efficiency relative to the continuous D-optimal design: ${formatNumber(metrics.boundEfficiency, 4)} % (${metrics.boundNote})`,
+      : `Efficiency against the continuous optimum: ${formatNumber(metrics.boundEfficiency, 4)} %, ${metrics.boundNote}`,
   );
   lines.push(`Average prediction variance over the region (I-criterion): ${formatNumber(metrics.iCriterion, 3)} σ²`);
   if (plan.schedule) lines.push(`Run order: ${plan.schedule.note}`);
