@@ -15,9 +15,9 @@
  *   saves one change of that inner factor without touching the outer ones.
  * - Centre replicates belong to the group whose setting they share, spread evenly inside it
  *   (see `centreSpread.ts`). When no other run shares the centre setting, each replicate becomes
- *   a one-run block of its own and the blocks are spread over the campaign (first, middle, last
- *   block for three): a drift check is worth the two extra resets each costs, and replicates run
- *   back to back would check nothing.
+ *   a one-run block of its own and the blocks are spread over the campaign (first run, the
+ *   block boundary nearest the middle run, last run for three): a drift check is worth the two
+ *   extra resets each inner one costs, and replicates run back to back would check nothing.
  * - A level change is a pair of consecutive runs whose settings of a factor differ; the first
  *   set-up of the campaign is not a change. Changes are summed over the hard-to-change factors.
  *   With one such factor, grouping reaches the minimum: (distinct settings − 1).
@@ -96,7 +96,13 @@ export function groupByHardToChange<T extends GroupableRun>(
   return spreadLoneCentres(groups, factorIds[0]);
 }
 
-/** Replaces a block made only of centre replicates by one-run blocks at evenly spread places. */
+/**
+ * Replaces a block made only of centre replicates by one-run blocks spread over the campaign:
+ * the first opens it, the last closes it, and each one between goes to the block boundary
+ * whose run position is nearest its even-spread slot k·(n − 1)/(c − 1) (ties to the earlier
+ * boundary). Placing by run position rather than by block count keeps the middle replicate
+ * near the middle run when the blocks differ in size.
+ */
 function spreadLoneCentres<T extends GroupableRun>(groups: T[][], outerFactor: string): T[][] {
   const lone = groups.findIndex((group) => group.length > 1 && group.every((run) => run.purpose === 'centre'));
   if (lone < 0) return groups;
@@ -105,12 +111,28 @@ function spreadLoneCentres<T extends GroupableRun>(groups: T[][], outerFactor: s
   // Only a block that is alone in the outermost setting can move without splitting another block.
   const outerKey = settingKey(centres[0].settings[outerFactor]);
   if (rest.some((group) => settingKey(group[0].settings[outerFactor]) === outerKey)) return groups;
-  const total = rest.length + centres.length;
-  const slots = new Set(spreadSlots(centres.length, total));
+  const runsBefore = [0];
+  for (const group of rest) runsBefore.push(runsBefore[runsBefore.length - 1] + group.length);
+  const count = centres.length;
+  const lastSlot = runsBefore[rest.length] + count - 1;
+  // boundaryOf[k]: how many of the other blocks come before centre replicate k.
+  const boundaryOf: number[] = [];
+  let from = 0;
+  for (let k = 0; k < count; k++) {
+    const target = (k * lastSlot) / (count - 1);
+    let best = from;
+    for (let b = from + 1; b <= rest.length; b++) {
+      if (Math.abs(runsBefore[b] + k - target) < Math.abs(runsBefore[best] + k - target) - 1e-9) best = b;
+    }
+    boundaryOf.push(best);
+    from = best;
+  }
   const out: T[][] = [];
   let nextCentre = 0;
-  let nextRest = 0;
-  for (let slot = 0; slot < total; slot++) out.push(slots.has(slot) ? [centres[nextCentre++]] : rest[nextRest++]);
+  for (let b = 0; b <= rest.length; b++) {
+    while (nextCentre < count && boundaryOf[nextCentre] === b) out.push([centres[nextCentre++]]);
+    if (b < rest.length) out.push(rest[b]);
+  }
   return out;
 }
 

@@ -76,6 +76,7 @@ export function scheduleRuns(plan: Pick<PlanDocument, 'runs' | 'levels' | 'study
     const levelChanges = countLevelChanges(sequence, hardIds);
     const names = listNames(hardFactors.map((factor) => factor.name));
     const fewest = hardIds.length === 1 ? distinctSettings(runs, hardIds[0]) - 1 : null;
+    const centres = runs.filter((run) => run.purpose === 'centre').length;
     hardToChange = {
       factors: hardIds,
       levelChanges,
@@ -84,7 +85,9 @@ export function scheduleRuns(plan: Pick<PlanDocument, 'runs' | 'levels' | 'study
         `are done together: ${groupCount} block${groupCount === 1 ? '' : 's'} in random order, runs inside each block in random order ` +
         `(restricted randomisation; analyse the blocks as whole plots). ` +
         `${levelChanges} setting change${levelChanges === 1 ? '' : 's'}${fewest !== null && fewest === levelChanges ? ' (the fewest possible)' : ''}, ` +
-        `not counting the first set-up${centresSpreadAlone(sequence) ? '; the centre repeats share no setting with other runs, so each is its own block, spread over the campaign to check drift' : ''}${splitGroups > 0 ? `; ${splitGroups} block${splitGroups === 1 ? '' : 's'} had to continue into the next ${sessionLabel.toLowerCase()}` : ''}.`,
+        `not counting the first set-up` +
+        centreClause(sequence, hardIds, centres, levelChanges, fewest) +
+        `${splitGroups > 0 ? `; ${splitGroups} block${splitGroups === 1 ? '' : 's'} had to continue into the next ${sessionLabel.toLowerCase()}` : ''}.`,
     };
   }
 
@@ -95,7 +98,8 @@ function orderNote(order: ScheduledRun[], sizes: number[], label: string, seed: 
   const centres = order.filter((run) => run.purpose === 'centre').map((run) => run.sequence);
   const parts: string[] = [];
   if (grouped) {
-    parts.push(`Run order drawn at random from seed ${seed}, with runs sharing a hard-to-change setting kept together`);
+    const centreText = centres.length === 0 ? '' : `; centre ${centres.length === 1 ? 'repeat is run' : 'repeats are runs'} ${listNames(centres.map(String))}`;
+    parts.push(`Run order drawn at random from seed ${seed}, with runs sharing a hard-to-change setting kept together${centreText}`);
   } else {
     const centreText =
       centres.length === 0
@@ -115,12 +119,31 @@ function orderNote(order: ScheduledRun[], sizes: number[], label: string, seed: 
   return text;
 }
 
-/** True when the centre replicates are not next to one another (moved apart as one-run blocks). */
-function centresSpreadAlone(sequence: GroupableRun[]): boolean {
+/**
+ * What the grouping did with the centre replicates, for the hard-to-change note: spread as
+ * one-run blocks (and what that costs in resets), or kept inside the block of their setting.
+ */
+function centreClause(sequence: GroupableRun[], hardIds: string[], centres: number, levelChanges: number, fewest: number | null): string {
+  if (centres < 2) return '';
+  if (!centresSpreadAlone(sequence, hardIds)) {
+    return '; the centre repeats share their setting with other runs, so they stay in that block, spread inside it, and check drift only there';
+  }
+  const extra = fewest !== null ? levelChanges - fewest : 0;
+  return (
+    '; the centre repeats share no setting with other runs, so each is a block of its own, spread over the campaign to check drift' +
+    (extra > 0 ? ` (${fewest} change${fewest === 1 ? '' : 's'} would do if they ran back to back; spreading them costs the other ${extra})` : '')
+  );
+}
+
+/**
+ * True when no other run shares the centre replicates' hard-to-change setting and the
+ * replicates are not next to one another (moved apart as one-run blocks).
+ */
+function centresSpreadAlone(sequence: GroupableRun[], hardIds: string[]): boolean {
   const at = sequence.flatMap((run, index) => (run.purpose === 'centre' ? [index] : []));
   return at.length > 1 && at.every((index, k) => k === 0 || index - at[k - 1] > 1) && at.every((index) => {
     const key = sequence[index].settings;
-    return sequence.every((other) => other.purpose === 'centre' || Object.keys(key).some((id) => other.settings[id] !== key[id]));
+    return sequence.every((other) => other.purpose === 'centre' || hardIds.some((id) => other.settings[id] !== key[id]));
   });
 }
 

@@ -84,3 +84,37 @@ describe('centre replicates with a hard-to-change setting of their own', () => {
     }
   });
 });
+
+describe('lone centre replicates among blocks of unequal size', () => {
+  // One large block (six runs at 160), two one-run blocks (200, 170) and three centres at 180:
+  // n = 11, so the middle replicate aims at run index (n − 1)/2 = 5 (0-based).
+  const run = (point: string, purpose: 'fit' | 'centre', t: number) => ({ point, purpose, settings: { t } });
+  const runs = [
+    ...[1, 2, 3, 4, 5, 6].map((i) => run(`A${i}`, 'fit', 160)),
+    run('B1', 'fit', 200),
+    run('D1', 'fit', 170),
+    run('C1', 'centre', 180),
+    run('C2', 'centre', 180),
+    run('C3', 'centre', 180),
+  ];
+
+  it('open and close the campaign, and the middle one sits at the block boundary nearest the middle run', () => {
+    for (const seed of [1, 2, 3, 4, 5, 6]) {
+      const sequence = groupByHardToChange(runs, ['t'], createRandom(seed)).flat();
+      const centreAt = sequence.flatMap((r, i) => (r.purpose === 'centre' ? [i] : []));
+      expect(centreAt[0]).toBe(0);
+      expect(centreAt[2]).toBe(10);
+      // Places the middle replicate could take without splitting a block: after the first
+      // centre, between two blocks of different settings (hand rule of hardToChangeGrouping.ts).
+      const others = sequence.filter((r) => r.purpose !== 'centre');
+      const boundaries = [1];
+      others.forEach((r, i) => {
+        if (i + 1 === others.length || others[i + 1].settings.t !== r.settings.t) boundaries.push(i + 2);
+      });
+      const nearest = Math.min(...boundaries.map((b) => Math.abs(b - 5)));
+      expect(Math.abs(centreAt[1] - 5)).toBe(nearest);
+      // With the six-run block first, counting blocks instead of runs would put it at index 8.
+      if (sequence[1].settings.t === 160) expect(centreAt[1]).toBe(7);
+    }
+  });
+});

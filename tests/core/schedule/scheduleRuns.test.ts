@@ -124,3 +124,34 @@ describe('scheduleRuns with a hard-to-change factor', () => {
     expect(schedule.hardToChange!.levelChanges).toBe(4);
   });
 });
+
+describe('what the notes say about the centre replicates under grouping', () => {
+  it('lists the centre runs and says they stay in the block they share', () => {
+    const plan = sprayDryerPlan(); // fit runs at 180 °C share the centre setting
+    const schedule = scheduleRuns(plan, 20261201);
+    const centres = schedule.order.filter((r) => r.purpose === 'centre').map((r) => r.sequence);
+    expect(schedule.note).toContain(`centre repeats are runs ${centres[0]}, ${centres[1]} and ${centres[2]}`);
+    expect(schedule.hardToChange!.note).toMatch(/stay in that block/);
+  });
+
+  it('counts what spreading lone centre replicates costs in setting changes', () => {
+    const plan = sprayDryerPlan();
+    delete plan.study.sessions;
+    // Move the 180 °C fit runs to 190 °C, so no other run shares the centre setting.
+    for (const run of plan.runs) if (run.purpose === 'fit' && run.settings.inlet_temp === 180) run.settings.inlet_temp = 190;
+    const schedule = scheduleRuns(plan, 7);
+    const centres = schedule.order.filter((r) => r.purpose === 'centre').map((r) => r.sequence);
+    expect(centres[0]).toBe(1);
+    expect(centres[2]).toBe(18);
+    // Settings 160, 170, 180, 190, 200 → 4 changes if the centres ran back to back; the spread
+    // costs more, counted by hand along the sequence below.
+    const byPoint = new Map(plan.runs.map((r) => [r.point, r]));
+    const temps = schedule.order.map((r) => byPoint.get(r.point)!.settings.inlet_temp);
+    let changes = 0;
+    for (let i = 1; i < temps.length; i++) if (temps[i] !== temps[i - 1]) changes++;
+    expect(schedule.hardToChange!.levelChanges).toBe(changes);
+    expect(changes).toBeGreaterThan(4);
+    expect(schedule.hardToChange!.note).toContain(`(4 changes would do if they ran back to back; spreading them costs the other ${changes - 4})`);
+  });
+});
+
