@@ -73,8 +73,14 @@ export async function readTableRows(path: string, file: string, sheetNames: read
     throw new InputError(`unsupported table type "${extension || '(no extension)'}"; use .csv, .xlsx or .json${hint}`, { file });
   }
   await checkReadableFile(path, file);
-  if (extension === '.xlsx') return readWorkbook(path, file, sheetNames);
-  const bytes = await readFile(path);
+  // stat succeeds on a file the user may not read (permissions), so reading needs its own message.
+  let bytes: Uint8Array;
+  try {
+    bytes = await readFile(path);
+  } catch (error) {
+    throw new InputError(fileSystemProblem(error), { file });
+  }
+  if (extension === '.xlsx') return readWorkbook(bytes, file, sheetNames);
   if (extension === '.json') return readJsonRows(bytes, file);
   return readCsvRows(bytes, file);
 }
@@ -229,12 +235,12 @@ function countOutsideQuotes(line: string, separator: string): number {
 
 // ---------------------------------------------------------------------------------- XLSX
 
-async function readWorkbook(path: string, file: string, sheetNames: readonly string[]): Promise<TableRows> {
+async function readWorkbook(bytes: Uint8Array, file: string, sheetNames: readonly string[]): Promise<TableRows> {
   // exceljs takes a noticeable part of a second to load; only workbook users pay for it.
   const { default: excel } = await import('exceljs');
   const workbook = new excel.Workbook();
   try {
-    await workbook.xlsx.readFile(path);
+    await workbook.xlsx.load(Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength) as unknown as ExcelJS.Buffer);
   } catch (error) {
     throw new InputError(`cannot be read as an .xlsx workbook (${(error as Error).message.split('\n')[0]})`, { file });
   }
