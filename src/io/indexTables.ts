@@ -77,6 +77,7 @@ export async function readIndexTable(path: string, file: string, ids: StudyIds):
   // A JSON table's columns come from its rows, so an empty one has no header to check.
   if (table.format === 'json') requireDataRows(table, '');
   const columns = mapColumns(table, INDEX_COLUMN_ALIASES, ['factor', 'response', 'first', 'total']);
+  requireBoundPairs(table, columns);
   requireDataRows(table, '');
   const warnings: string[] = [];
   const clipped: { count: number; first?: InputLocation } = { count: 0 };
@@ -122,6 +123,8 @@ export async function readIndexTable(path: string, file: string, ids: StudyIds):
       }
       (indexRow as unknown as Record<string, number>)[field] = inside;
     }
+    checkInterval(table, row, indexRow, 'first', columns.first_low, columns.first_high);
+    checkInterval(table, row, indexRow, 'total', columns.total_low, columns.total_high);
     if (indexRow.first > indexRow.total + INDEX_ORDER_TOLERANCE) {
       warnings.push(
         new InputError(
@@ -321,6 +324,48 @@ function readEstimate(table: TableRows, row: TableRow, column: number, warnings:
   return { value, raw };
 }
 
+// ------------------------------------------------------------------------------ intervals
+
+/** A bound column without its partner would give intervals with one end; refuse at the header. */
+function requireBoundPairs(table: TableRows, columns: Partial<Record<IndexColumn, number>>): void {
+  for (const [low, high] of [['first_low', 'first_high'], ['total_low', 'total_high']] as const) {
+    if ((columns[low] === undefined) === (columns[high] === undefined)) continue;
+    const [given, missing] = columns[low] !== undefined ? [low, high] : [high, low];
+    const column = table.header[columns[given] as number];
+    throw new InputError(
+      `column "${column}" has no partner column ${missing}; a confidence interval needs both bounds (or leave both columns out)`,
+      table.format === 'json' ? { file: table.file, column } : { file: table.file, ...table.headerAt, column },
+    );
+  }
+}
+
+/** Both bounds of an interval or neither, and the low one not above the high one. */
+function checkInterval(
+  table: TableRows,
+  row: TableRow,
+  indexRow: IndexRow,
+  index: 'first' | 'total',
+  lowColumn: number | undefined,
+  highColumn: number | undefined,
+): void {
+  const low = index === 'first' ? indexRow.firstLow : indexRow.totalLow;
+  const high = index === 'first' ? indexRow.firstHigh : indexRow.totalHigh;
+  if (low === undefined && high === undefined) return;
+  if (low === undefined || high === undefined) {
+    const [emptyColumn, givenName] = low === undefined ? [lowColumn, `${index}_high`] : [highColumn, `${index}_low`];
+    throw new InputError(
+      `is empty but ${givenName} is given; a confidence interval needs both bounds (or leave both empty)`,
+      cellLocation(table, row, emptyColumn as number),
+    );
+  }
+  if (low > high) {
+    throw new InputError(
+      `low bound ${low} is above high bound ${high}; are the bound columns swapped?`,
+      cellLocation(table, row, lowColumn as number),
+    );
+  }
+}
+
 // ------------------------------------------------------------------------------- helpers
 
 function requireEveryPair(file: string, ids: StudyIds, seen: ReadonlyMap<string, TableRow>): void {
@@ -331,6 +376,16 @@ function requireEveryPair(file: string, ids: StudyIds, seen: ReadonlyMap<string,
     }
   }
   if (missing.length === 0) return;
+  // A factor absent from the whole table is usually a parameter left out of the analysis (or
+  // a misspelt id in the study file): name it as such rather than as one missing pair.
+  const absent = ids.factorIds.filter((factor) => ids.responseIds.every((response) => !seen.has(`${factor}\u0000${response}`)));
+  if (absent.length > 0) {
+    const others = absent.length > 1 ? ` (and ${absent.slice(1).join(', ')})` : '';
+    throw new InputError(
+      `factor ${absent[0]}${others} is defined in the study file but has no rows; every factor in the study, operating or model, needs one row per response`,
+      { file },
+    );
+  }
   const more = missing.length > 1 ? ` (and ${missing.length - 1} more pair${missing.length > 2 ? 's' : ''})` : '';
   throw new InputError(
     `no row for factor × response ${missing[0]}${more}; every factor in the study, operating or model, needs one row per response`,

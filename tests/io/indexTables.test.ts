@@ -261,7 +261,7 @@ describe('rows', () => {
   it('a factor with no rows at all', () =>
     expectCsvError(
       withRow(8, '').replace('k_ref,titre,0.05,0.09,,,,', ''),
-      'indices.csv: no row for factor × response k_ref × titre (and 1 more pair); every factor in the study, operating or model, needs one row per response',
+      'indices.csv: factor k_ref is defined in the study file but has no rows; every factor in the study, operating or model, needs one row per response',
     ));
   it('a duplicate row names both rows', () =>
     expectCsvError(
@@ -333,6 +333,28 @@ describe('warnings and clipping', () => {
     expectCsvError(
       withRow(5, 'ph,titre,0.20,0.31,0.17,0.23,0.27,0.28'),
       'indices.csv, row 5, column total_high: high bound 0.28 is below its estimate 0.31 (tolerance 0.02); are the bound columns swapped?',
+    ));
+  // A one-sided interval used to be kept silently and then dropped from the factor's
+  // aggregated interval, hiding a possible borderline; it is refused now.
+  it('a low bound without its high bound is an error at the empty cell', () =>
+    expectCsvError(
+      withRow(3, 'temp,titre,0.42,0.55,0.38,0.46,0.50,'),
+      'indices.csv, row 3, column total_high: is empty but total_low is given; a confidence interval needs both bounds (or leave both empty)',
+    ));
+  it('a high bound without its low bound is an error at the empty cell', () =>
+    expectCsvError(
+      withRow(5, 'ph,titre,0.20,0.31,,0.23,0.27,0.35'),
+      'indices.csv, row 5, column first_low: is empty but first_high is given; a confidence interval needs both bounds (or leave both empty)',
+    ));
+  it('a low bound above the high bound (each within tolerance of the estimate) is an error', () =>
+    expectCsvError(
+      withRow(5, 'ph,titre,0.20,0.31,0.17,0.23,0.32,0.30'),
+      'indices.csv, row 5, column total_low: low bound 0.32 is above high bound 0.3; are the bound columns swapped?',
+    ));
+  it('a bound column without its partner column is an error at the header', () =>
+    expectCsvError(
+      ['factor,response,first,total,ST_low', 'temp,titre,0.42,0.55,0.5', 'temp,purity,0.1,0.18,0.1'].join('\n'),
+      'indices.csv, row 1, column ST_low: column "ST_low" has no partner column total_high; a confidence interval needs both bounds (or leave both columns out)',
     ));
   it('negative lower bounds are clipped to 0 with one summary warning', async () => {
     const text = withRow(3, 'temp,titre,0.42,0.55,0.38,0.46,0.50,0.60')
