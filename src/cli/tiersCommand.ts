@@ -3,6 +3,7 @@
  * or negligible, which model parameters need precise estimation, and how robust that is to
  * the cut-offs. Options override the study's `policy`.
  */
+import { dirname, resolve } from 'node:path';
 import type { Command } from 'commander';
 import { InputError } from '../core/inputError.js';
 import { decideTiers } from '../core/sensitivity/decideTiers.js';
@@ -33,9 +34,9 @@ export function registerTiers(program: Command): void {
     .option('--json', 'print the tier decision as JSON on stdout')
     .option('-o, --out <file>', 'also write the decision to a .csv (one row per factor) or .json file')
     .option('--aggregate <rule>', 'how indices combine over responses: mean, max or weighted (overrides policy.aggregate)')
-    .option('--critical <x>', 'total index at or above which a factor is critical, 0–1 (overrides policy.critical)')
-    .option('--moderate <x>', 'total index at or above which a factor is moderate, 0–1 (overrides policy.moderate)')
-    .option('--interaction <x>', 'second-order index at or above which a pair is listed, 0–1 (overrides policy.interaction)')
+    .option('--critical <x>', 'total index at or above which a factor is critical, between 0 and 1 (overrides policy.critical)')
+    .option('--moderate <x>', 'total index at or above which a factor is moderate, between 0 and 1 (overrides policy.moderate)')
+    .option('--interaction <x>', 'second-order index at or above which a pair is listed, between 0 and 1 (overrides policy.interaction)')
     .option('--confidence <basis>', 'tier on the estimate (point) or the upper confidence bound (upper) (overrides policy.confidence)')
     .action(async (studyPath: string, options: TiersOptions) => {
       // Everything the options alone can get wrong is refused before the study is read.
@@ -49,7 +50,11 @@ export function registerTiers(program: Command): void {
       const result = decideTiers(study);
       const document = tierDocument(study.title, result, study.warnings);
       if (options.out !== undefined) {
-        await writeTierExport(options.out, document, result, study.responses.map((response) => response.id));
+        const studyFolder = dirname(resolve(studyPath));
+        const inputFiles = [studyPath, study.source.indicesFile, study.source.interactionsFile]
+          .filter((file): file is string => file !== undefined)
+          .map((file, i) => (i === 0 ? resolve(file) : resolve(studyFolder, file)));
+        await writeTierExport(options.out, document, result, study.responses.map((response) => response.id), inputFiles);
       }
 
       if (options.json) {
@@ -81,10 +86,15 @@ function parseOverrides(options: TiersOptions): Partial<TierPolicy> {
   return overrides;
 }
 
+/** Decimal notation only: `Number()` alone would also take "0x1", "0b1" and "Infinity". */
+const DECIMAL = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/;
+
+/** A cut-off on the same terms as the study's `policy` keys: strictly between 0 and 1. */
 function fraction(name: string, text: string): number {
-  const value = text.trim() === '' ? Number.NaN : Number(text);
-  if (!Number.isFinite(value) || value < 0 || value > 1) {
-    throw new InputError(`${name} must be a number between 0 and 1, not "${text}"`);
+  const trimmed = text.trim();
+  const value = DECIMAL.test(trimmed) ? Number(trimmed) : Number.NaN;
+  if (!(value > 0 && value < 1)) {
+    throw new InputError(`${name} must be a number strictly between 0 and 1 (such as 0.3), not "${text}"`);
   }
   return value;
 }

@@ -27,8 +27,14 @@ export function tiersSummary(study: Pick<Study, 'title' | 'responses'>, result: 
   const decidedOnUpper = policy.confidence === 'upper';
 
   out.push(paint.bold(`Tiers — ${study.title}`));
+  const responseCount = study.responses.length;
+  // Under `weighted` the reader needs the weights to redo the sum by hand.
+  const responseNote =
+    policy.aggregate === 'weighted'
+      ? `weights ${study.responses.map((response) => `${response.id} ${formatNumber(response.weight)}`).join(', ')}`
+      : `${responseCount} response${responseCount === 1 ? '' : 's'}`;
   out.push(
-    `Total Sobol' index, ${AGGREGATE_WORDS[policy.aggregate]} (${study.responses.length} responses); ` +
+    `Total Sobol' index, ${AGGREGATE_WORDS[policy.aggregate]} (${responseNote}); ` +
       `critical ≥ ${cutoff(policy.critical)}, moderate ≥ ${cutoff(policy.moderate)}, ` +
       `tiered on the ${decidedOnUpper ? 'upper confidence bound' : 'estimate'}.`,
   );
@@ -93,6 +99,7 @@ export function tiersSummary(study: Pick<Study, 'title' | 'responses'>, result: 
   }
 
   const { calibration } = result;
+  const borderline = new Set(result.factors.filter((factor) => factor.borderline).map((factor) => factor.id));
   out.push('', paint.bold('Calibration list (model parameters)'));
   if (calibration.entries.length === 0) {
     out.push('The study has no model parameters.');
@@ -104,7 +111,7 @@ export function tiersSummary(study: Pick<Study, 'title' | 'responses'>, result: 
           entry.id,
           entry.name,
           entry.aggregatedTotal,
-          paint.tier(entry.tier),
+          paint.tier(entry.tier) + (borderline.has(entry.id) ? ` ${BORDERLINE_MARK}` : ''),
           entry.action === 'estimate' ? 'estimate precisely (lab fit or dedicated test)' : 'take a literature or nominal value',
         ]),
       ).trimEnd(),

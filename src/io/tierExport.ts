@@ -11,10 +11,12 @@
  *   quoted and guarded against formula injection (`csvCell.ts`); numbers are plain.
  * - A file is written to a temporary name in the same folder and renamed into place, so a
  *   reader never sees half a file and a failure leaves nothing behind.
+ * - The study file and its index tables are never overwritten: `--out indices.csv` is a
+ *   slip of the keyboard that would destroy the sensitivity analysis the decision rests on.
  */
 import { randomBytes } from 'node:crypto';
-import { rename, stat, unlink, writeFile } from 'node:fs/promises';
-import { basename, dirname, extname, join } from 'node:path';
+import { realpath, rename, stat, unlink, writeFile } from 'node:fs/promises';
+import { basename, dirname, extname, join, resolve } from 'node:path';
 import { InputError } from '../core/inputError.js';
 import type { TierResult } from '../core/sensitivity/tierTypes.js';
 import { csvCell, type CsvValue } from './csvCell.js';
@@ -98,14 +100,24 @@ export function tierCsv(result: TierResult, responseIds: readonly string[]): str
   return `${lines.join('\r\n')}\r\n`;
 }
 
-/** Writes `document` to `path` as CSV or JSON (by extension), atomically. */
+/**
+ * Writes `document` to `path` as CSV or JSON (by extension), atomically. `inputFiles` (the
+ * study file and its tables) are refused as targets.
+ */
 export async function writeTierExport(
   path: string,
   document: TierDocument,
   result: TierResult,
   responseIds: readonly string[],
+  inputFiles: readonly string[] = [],
 ): Promise<void> {
   const format = tierExportFormat(path);
+  const target = await sameFileKey(path);
+  for (const input of inputFiles) {
+    if ((await sameFileKey(input)) === target) {
+      throw new InputError('is an input of the study (the study file or one of its index tables); choose another --out file', { file: path });
+    }
+  }
   const content = format === 'json' ? `${JSON.stringify(document, null, 2)}\n` : tierCsv(result, responseIds);
   const folder = dirname(path);
   try {
@@ -114,6 +126,9 @@ export async function writeTierExport(
   } catch (error) {
     if (error instanceof InputError) throw error;
     throw new InputError('folder does not exist; create it first', { file: folder });
+  }
+  if (await stat(path).then((info) => info.isDirectory(), () => false)) {
+    throw new InputError('is a folder; give a file name ending in .csv or .json', { file: path });
   }
   const temporary = join(folder, `.${basename(path)}.${randomBytes(6).toString('hex')}.tmp`);
   try {
@@ -127,4 +142,9 @@ export async function writeTierExport(
     }
     throw error;
   }
+}
+
+/** The resolved path, through symbolic links when the file exists, so two names of one file compare equal. */
+async function sameFileKey(path: string): Promise<string> {
+  return realpath(path).catch(() => resolve(path));
 }

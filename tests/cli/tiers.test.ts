@@ -19,6 +19,10 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { repoRoot, runCli } from '../support/runCli.js';
+import { tiersSummary } from '../../src/cli/tiersSummary.js';
+import { decideTiers } from '../../src/core/sensitivity/decideTiers.js';
+import { painter } from '../../src/io/terminalStyle.js';
+import { factor, policy, response, row } from '../core/sensitivity/studyFixture.js';
 
 const sampleDir = join(repoRoot, 'samples/spray-dryer');
 const sample = join(sampleDir, 'study.yaml');
@@ -105,8 +109,32 @@ describe('tierplan tiers on the sample (human output)', () => {
     expect(new Set(columnOfTotal).size).toBe(1);
   });
 
-  it('prints no colour codes when NO_COLOR is set', () => {
+  it('prints no colour codes when stdout is not a terminal (NO_COLOR itself: terminalStyle.test.ts)', () => {
     expect(result.stdout).not.toContain('\u001b[');
+  });
+});
+
+// The report text itself, without a process: details a reader relies on.
+describe('tiersSummary', () => {
+  // Invented: one response, weight 3. a: 0.40 critical; p (model): 0.04, bounds 0.03–0.06 → negligible, borderline.
+  const study = {
+    title: 'Invented',
+    factors: [factor('a'), factor('p', 'model')],
+    responses: [response('y', 3)],
+    indices: [row('a', 'y', 0.3, 0.4), row('p', 'y', 0.02, 0.04, [0.03, 0.06])],
+    interactions: [],
+  };
+
+  it('says "1 response", marks a borderline model parameter in the calibration list too', () => {
+    const text = tiersSummary(study, decideTiers({ ...study, policy: policy() }), painter(false));
+    expect(text).toContain('mean over the responses (1 response);');
+    expect(text).toMatch(/^p\s+Factor p\s+0\.0400\s+negligible \*\s+take a literature or nominal value$/m);
+    expect(text).toMatch(/^\* borderline:/m);
+  });
+
+  it('names the weights when the aggregate is weighted', () => {
+    const text = tiersSummary(study, decideTiers({ ...study, policy: policy({ aggregate: 'weighted' }) }), painter(false));
+    expect(text).toContain('response-weighted mean (weights y 3);');
   });
 });
 
@@ -216,9 +244,26 @@ describe('tierplan tiers refusals', () => {
     expect(readdirSync(dir)).toEqual([]);
   };
 
-  it('a cut-off that is not a number between 0 and 1', () => {
-    refused([sample, '--critical', 'abc'], /--critical must be a number between 0 and 1, not "abc"/);
-    refused([sample, '--moderate', '1.5'], /--moderate must be a number between 0 and 1/);
+  it('a cut-off that is not a number strictly between 0 and 1 (the study file’s own rule)', () => {
+    refused([sample, '--critical', 'abc'], /--critical must be a number strictly between 0 and 1 \(such as 0\.3\), not "abc"/);
+    refused([sample, '--moderate', '1.5'], /--moderate must be a number strictly between 0 and 1/);
+    // 0 would make every factor at least moderate; Number('0x1') is 1.
+    refused([sample, '--interaction', '0'], /--interaction must be a number strictly between 0 and 1/);
+    refused([sample, '--critical', '0x1'], /--critical must be a number strictly between 0 and 1/);
+  });
+
+  it('an --out file that is one of the study’s inputs is refused and the input kept', () => {
+    const study = editedSample((text) => text);
+    const indices = join(study, '..', 'indices.csv');
+    const before = readFileSync(indices, 'utf8');
+    const result = runCli(['tiers', study, '--out', indices]);
+    expect(result.status).toBe(2);
+    expect(result.stdout).toBe('');
+    expect(result.stderr.trimEnd().split('\n')).toEqual([
+      `tierplan: ${indices}: is an input of the study (the study file or one of its index tables); choose another --out file`,
+    ]);
+    expect(readFileSync(indices, 'utf8')).toBe(before);
+    expect(readdirSync(join(study, '..')).sort()).toEqual(['indices.csv', 'interactions.csv', 'study.yaml']);
   });
 
   it('an unknown aggregate rule or confidence basis', () => {
