@@ -73,20 +73,3 @@ export const SWEEP_SERIES_STYLE: Record<Tier, SeriesStyle> = {
   moderate: { stroke: OKABE_ITO.orange, dash: [8, 4], shape: 'square', strokeWidth: 2.5 },
   negligible: { stroke: NEUTRAL.axis, dash: [2, 3], shape: 'triangle-up', strokeWidth: 2.5 },
 };
-
-/** Vega config shared by every chart: plain fonts that print well, quiet axes. */
-export const CHART_CONFIG = {
-  background: '#ffffff',
-  font: 'Helvetica, Arial, sans-serif',
-  axis: {
-    labelColor: NEUTRAL.text,
-    titleColor: NEUTRAL.text,
-    domainColor: NEUTRAL.axis,
-    tickColor: NEUTRAL.axis,
-    gridColor: NEUTRAL.grid,
-    labelFontSize: 11,
-    titleFontSize: 11,
-  },
-  legend: { labelFontSize: 11, titleFontSize: 11, labelColor: NEUTRAL.text, titleColor: NEUTRAL.text },
-  text: { fill: NEUTRAL.text, fontSize: 11 },
-} as const;

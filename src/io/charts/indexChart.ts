@@ -11,11 +11,13 @@
  * from strings, so duplicate names cannot merge two bars.
  */
 import type { Spec } from 'vega';
-import type { TierResult } from '../../core/sensitivity/tierTypes.js';
-import { CHART_CONFIG, NEUTRAL, THRESHOLD_STYLE, TIER_STYLE } from './chartPalette.js';
+import type { Tier, TierResult } from '../../core/sensitivity/tierTypes.js';
+import { NEUTRAL, THRESHOLD_STYLE, TIER_STYLE } from './chartPalette.js';
+import { chartSpec, dataMark, referenceLabels, referenceRules } from './vegaSpecParts.js';
 import { renderVegaSvg } from './vegaSvg.js';
 
-const ROW_HEIGHT = 19;
+const ROW_HEIGHT = 15;
+const TIERS: Tier[] = ['critical', 'moderate', 'negligible'];
 const PLOT_WIDTH = 340;
 
 export async function indexChartSvg(tiers: TierResult): Promise<string> {
@@ -41,12 +43,10 @@ export async function indexChartSvg(tiers: TierResult): Promise<string> {
   ];
   const height = Math.max(ROW_HEIGHT * rows.length, ROW_HEIGHT);
 
-  const spec: Spec = {
+  const spec: Spec = chartSpec({
     width: PLOT_WIDTH,
     height,
     padding: { left: 5, top: 34, right: 10, bottom: 5 },
-    autosize: 'pad',
-    config: CHART_CONFIG,
     data: [
       { name: 'factors', values: rows },
       { name: 'intervals', source: 'factors', transform: [{ type: 'filter', expr: 'datum.low != null && datum.high != null' }] },
@@ -55,18 +55,8 @@ export async function indexChartSvg(tiers: TierResult): Promise<string> {
     scales: [
       { name: 'x', type: 'linear', domain: [0, xMax], range: 'width', nice: false, zero: true },
       { name: 'y', type: 'band', domain: rows.map((row) => row.key), range: 'height', padding: 0.25 },
-      {
-        name: 'tierFill',
-        type: 'ordinal',
-        domain: ['critical', 'moderate', 'negligible'],
-        range: [TIER_STYLE.critical.fill, TIER_STYLE.moderate.fill, TIER_STYLE.negligible.fill],
-      },
-      {
-        name: 'tierStroke',
-        type: 'ordinal',
-        domain: ['critical', 'moderate', 'negligible'],
-        range: [TIER_STYLE.critical.stroke, TIER_STYLE.moderate.stroke, TIER_STYLE.negligible.stroke],
-      },
+      { name: 'tierFill', type: 'ordinal', domain: TIERS, range: TIERS.map((tier) => TIER_STYLE[tier].fill) },
+      { name: 'tierStroke', type: 'ordinal', domain: TIERS, range: TIERS.map((tier) => TIER_STYLE[tier].stroke) },
     ],
     axes: [
       {
@@ -78,116 +68,58 @@ export async function indexChartSvg(tiers: TierResult): Promise<string> {
       },
     ],
     marks: [
-      {
-        type: 'text',
-        name: 'factorNames',
-        from: { data: 'factors' },
-        encode: {
-          enter: {
-            x: { value: -8 },
-            y: { scale: 'y', field: 'key', band: 0.5 },
-            text: { field: 'label' },
-            align: { value: 'right' },
-            baseline: { value: 'middle' },
-            fontSize: { value: 10 },
-            // Headless vega guesses text width at 0.8 em per character, so this allows about 55 characters.
-            limit: { value: 440 },
-          },
+      dataMark('text', 'factorNames', 'factors', {
+        x: { value: -8 },
+        y: { scale: 'y', field: 'key', band: 0.5 },
+        text: { field: 'label' },
+        align: { value: 'right' },
+        baseline: { value: 'middle' },
+        fontSize: { value: 10 },
+        // Headless vega guesses text width at 0.8 em per character, so this allows about 55 characters.
+        limit: { value: 440 },
+      }),
+      dataMark('rect', 'totalBars', 'factors', {
+        x: { scale: 'x', value: 0 },
+        x2: { scale: 'x', field: 'total' },
+        y: { scale: 'y', field: 'key' },
+        height: { scale: 'y', band: 1 },
+        fill: { scale: 'tierFill', field: 'tier' },
+        stroke: { scale: 'tierStroke', field: 'tier' },
+        strokeWidth: { value: 0.75 },
+      }),
+      dataMark('rule', 'totalIntervals', 'intervals', {
+        x: { scale: 'x', field: 'low' },
+        x2: { scale: 'x', field: 'high' },
+        y: { scale: 'y', field: 'key', band: 0.5 },
+        stroke: { value: NEUTRAL.text },
+        strokeWidth: { value: 1.5 },
+      }),
+      dataMark('symbol', 'firstOrder', 'factors', {
+        x: { scale: 'x', field: 'first' },
+        y: { scale: 'y', field: 'key', band: 0.5 },
+        shape: { value: 'diamond' },
+        size: { value: 70 },
+        fill: { value: '#ffffff' },
+        stroke: { value: '#000000' },
+        strokeWidth: { value: 1.25 },
+      }),
+      dataMark('text', 'barCaptions', 'factors', {
+        x: { scale: 'x', field: 'captionAt', offset: 5 },
+        y: { scale: 'y', field: 'key', band: 0.5 },
+        text: { field: 'caption' },
+        baseline: { value: 'middle' },
+        fontSize: { value: 10 },
+      }),
+      referenceRules('thresholdLines', 'thresholds', {
+        above: 8,
+        strokeWidth: 1.5,
+        stroke: { signal: `datum.key === 'critical' ? '${THRESHOLD_STYLE.critical.stroke}' : '${THRESHOLD_STYLE.moderate.stroke}'` },
+        strokeDash: {
+          signal: `datum.key === 'critical' ? [${THRESHOLD_STYLE.critical.dash.join(',')}] : [${THRESHOLD_STYLE.moderate.dash.join(',')}]`,
         },
-      },
-      {
-        type: 'rect',
-        name: 'totalBars',
-        from: { data: 'factors' },
-        encode: {
-          enter: {
-            x: { scale: 'x', value: 0 },
-            x2: { scale: 'x', field: 'total' },
-            y: { scale: 'y', field: 'key' },
-            height: { scale: 'y', band: 1 },
-            fill: { scale: 'tierFill', field: 'tier' },
-            stroke: { scale: 'tierStroke', field: 'tier' },
-            strokeWidth: { value: 0.75 },
-          },
-        },
-      },
-      {
-        type: 'rule',
-        name: 'totalIntervals',
-        from: { data: 'intervals' },
-        encode: {
-          enter: {
-            x: { scale: 'x', field: 'low' },
-            x2: { scale: 'x', field: 'high' },
-            y: { scale: 'y', field: 'key', band: 0.5 },
-            stroke: { value: NEUTRAL.text },
-            strokeWidth: { value: 1.5 },
-          },
-        },
-      },
-      {
-        type: 'symbol',
-        name: 'firstOrder',
-        from: { data: 'factors' },
-        encode: {
-          enter: {
-            x: { scale: 'x', field: 'first' },
-            y: { scale: 'y', field: 'key', band: 0.5 },
-            shape: { value: 'diamond' },
-            size: { value: 70 },
-            fill: { value: '#ffffff' },
-            stroke: { value: '#000000' },
-            strokeWidth: { value: 1.25 },
-          },
-        },
-      },
-      {
-        type: 'text',
-        name: 'barCaptions',
-        from: { data: 'factors' },
-        encode: {
-          enter: {
-            x: { scale: 'x', field: 'captionAt', offset: 5 },
-            y: { scale: 'y', field: 'key', band: 0.5 },
-            text: { field: 'caption' },
-            baseline: { value: 'middle' },
-            fontSize: { value: 10 },
-          },
-        },
-      },
-      {
-        type: 'rule',
-        name: 'thresholdLines',
-        from: { data: 'thresholds' },
-        encode: {
-          enter: {
-            x: { scale: 'x', field: 'at' },
-            y: { value: -8 },
-            y2: { signal: 'height' },
-            stroke: { signal: `datum.key === 'critical' ? '${THRESHOLD_STYLE.critical.stroke}' : '${THRESHOLD_STYLE.moderate.stroke}'` },
-            strokeDash: {
-              signal: `datum.key === 'critical' ? [${THRESHOLD_STYLE.critical.dash.join(',')}] : [${THRESHOLD_STYLE.moderate.dash.join(',')}]`,
-            },
-            strokeWidth: { value: 1.5 },
-          },
-        },
-      },
-      {
-        type: 'text',
-        name: 'thresholdLabels',
-        from: { data: 'thresholds' },
-        encode: {
-          enter: {
-            x: { scale: 'x', field: 'at', offset: 3 },
-            y: { field: 'dy' },
-            text: { field: 'text' },
-            baseline: { value: 'bottom' },
-            fontSize: { value: 10 },
-            fontWeight: { value: 'bold' },
-          },
-        },
-      },
+      }),
+      referenceLabels('thresholdLabels', 'thresholds', { field: 'dy' }, true),
     ],
-  };
+  });
   return renderVegaSvg(spec);
 }

@@ -11,7 +11,8 @@
  */
 import type { Spec } from 'vega';
 import type { ComparatorId, Comparison } from '../../core/compare/comparisonTypes.js';
-import { CHART_CONFIG, COMPARATOR_STYLE } from './chartPalette.js';
+import { COMPARATOR_STYLE } from './chartPalette.js';
+import { chartSpec, seriesLines, seriesMarkers, seriesScales } from './vegaSpecParts.js';
 import { renderVegaSvg } from './vegaSvg.js';
 
 /** Short names for legends; the report table carries each plan's full label. */
@@ -51,22 +52,17 @@ export async function predictionVarianceChartSvg(comparison: Comparison): Promis
   const high = Math.max(...positive);
   const logarithmic = positive.length === points.length && high / low > 20;
 
-  const spec: Spec = {
+  const spec: Spec = chartSpec({
     width: 330,
     height: 190,
     padding: 5,
-    autosize: 'pad',
-    config: CHART_CONFIG,
     data: [{ name: 'points', values: points }, { name: 'markers', values: markers }],
     scales: [
       { name: 'x', type: 'linear', domain: [0, 1], range: 'width' },
       logarithmic
         ? { name: 'y', type: 'log', domain: { data: 'points', field: 'variance' }, range: 'height', nice: true }
         : { name: 'y', type: 'linear', domain: { data: 'points', field: 'variance' }, range: 'height', nice: true, zero: true },
-      { name: 'stroke', type: 'ordinal', domain: ids, range: ids.map((id) => COMPARATOR_STYLE[id].stroke) },
-      { name: 'dash', type: 'ordinal', domain: ids, range: ids.map((id) => COMPARATOR_STYLE[id].dash) },
-      { name: 'shape', type: 'ordinal', domain: ids, range: ids.map((id) => COMPARATOR_STYLE[id].shape) },
-      { name: 'width', type: 'ordinal', domain: ids, range: ids.map((id) => COMPARATOR_STYLE[id].strokeWidth) },
+      ...seriesScales(ids, (id) => COMPARATOR_STYLE[id], true),
       { name: 'name', type: 'ordinal', domain: ids, range: ids.map((id) => COMPARATOR_SHORT_NAME[id]) },
     ],
     axes: [
@@ -94,43 +90,9 @@ export async function predictionVarianceChartSvg(comparison: Comparison): Promis
       },
     ],
     marks: [
-      {
-        type: 'group',
-        from: { facet: { name: 'series', data: 'points', groupby: 'id' } },
-        marks: [
-          {
-            type: 'line',
-            name: 'fdsLines',
-            from: { data: 'series' },
-            encode: {
-              enter: {
-                x: { scale: 'x', field: 'fraction' },
-                y: { scale: 'y', field: 'variance' },
-                stroke: { scale: 'stroke', field: 'id' },
-                strokeDash: { scale: 'dash', field: 'id' },
-                strokeWidth: { scale: 'width', field: 'id' },
-              },
-            },
-          },
-        ],
-      },
-      {
-        type: 'symbol',
-        name: 'fdsMarkers',
-        from: { data: 'markers' },
-        encode: {
-          enter: {
-            x: { scale: 'x', field: 'fraction' },
-            y: { scale: 'y', field: 'variance' },
-            shape: { scale: 'shape', field: 'id' },
-            stroke: { scale: 'stroke', field: 'id' },
-            fill: { value: '#ffffff' },
-            size: { value: 45 },
-            strokeWidth: { value: 1.5 },
-          },
-        },
-      },
+      seriesLines('fdsLines', { data: 'points', series: 'id', x: 'fraction', y: 'variance' }, 'scale'),
+      seriesMarkers('fdsMarkers', { data: 'markers', series: 'id', x: 'fraction', y: 'variance' }, 45),
     ],
-  };
+  });
   return renderVegaSvg(spec);
 }

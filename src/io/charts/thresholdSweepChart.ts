@@ -11,7 +11,8 @@
  */
 import type { Spec } from 'vega';
 import type { SweepRow, Tier, TierResult } from '../../core/sensitivity/tierTypes.js';
-import { CHART_CONFIG, NEUTRAL, SWEEP_SERIES_STYLE } from './chartPalette.js';
+import { NEUTRAL, SWEEP_SERIES_STYLE } from './chartPalette.js';
+import { chartSpec, dataMark, referenceLabels, referenceRules, seriesLines, seriesMarkers, seriesScales, type SeriesFields } from './vegaSpecParts.js';
 import { renderVegaSvg } from './vegaSvg.js';
 
 const TIERS: Tier[] = ['critical', 'moderate', 'negligible'];
@@ -51,15 +52,12 @@ export async function thresholdSweepChartSvg(tiers: TierResult, axis: SweptThres
   });
   const current = axis === 'critical' ? tiers.policy.critical : tiers.policy.moderate;
   const maxCount = Math.max(1, ...points.map((point) => point.count));
-  const style = (key: keyof (typeof SWEEP_SERIES_STYLE)['critical']) =>
-    TIERS.map((tier) => SWEEP_SERIES_STYLE[tier][key]);
+  const series: SeriesFields = { data: 'points', series: 'tier', x: 'threshold', y: 'count' };
 
-  const spec: Spec = {
+  const spec: Spec = chartSpec({
     width: 250,
     height: 140,
     padding: { left: 5, top: 20, right: 80, bottom: 5 },
-    autosize: 'pad',
-    config: CHART_CONFIG,
     data: [
       { name: 'points', values: points },
       { name: 'endLabels', values: endLabels },
@@ -68,96 +66,27 @@ export async function thresholdSweepChartSvg(tiers: TierResult, axis: SweptThres
     scales: [
       { name: 'x', type: 'linear', domain: { data: 'points', field: 'threshold' }, range: 'width', nice: false, zero: false },
       { name: 'y', type: 'linear', domain: [0, maxCount], range: 'height', nice: true, zero: true },
-      { name: 'stroke', type: 'ordinal', domain: TIERS, range: style('stroke') as string[] },
-      { name: 'dash', type: 'ordinal', domain: TIERS, range: style('dash') as number[][] },
-      { name: 'shape', type: 'ordinal', domain: TIERS, range: style('shape') as string[] },
+      ...seriesScales(TIERS, (tier) => SWEEP_SERIES_STYLE[tier]),
     ],
     axes: [
       { orient: 'bottom', scale: 'x', title: `${axis === 'critical' ? 'Critical' : 'Moderate'} threshold on the aggregated total index`, tickCount: 6 },
       { orient: 'left', scale: 'y', title: 'Number of factors', tickMinStep: 1, format: 'd', grid: true },
     ],
     marks: [
-      {
-        type: 'group',
-        from: { facet: { name: 'series', data: 'points', groupby: 'tier' } },
-        marks: [
-          {
-            type: 'line',
-            name: 'sweepLines',
-            from: { data: 'series' },
-            encode: {
-              enter: {
-                x: { scale: 'x', field: 'threshold' },
-                y: { scale: 'y', field: 'count' },
-                stroke: { scale: 'stroke', field: 'tier' },
-                strokeDash: { scale: 'dash', field: 'tier' },
-                strokeWidth: { value: 2 },
-              },
-            },
-          },
-        ],
-      },
-      {
-        type: 'symbol',
-        name: 'sweepMarkers',
-        from: { data: 'points' },
-        encode: {
-          enter: {
-            x: { scale: 'x', field: 'threshold' },
-            y: { scale: 'y', field: 'count' },
-            shape: { scale: 'shape', field: 'tier' },
-            stroke: { scale: 'stroke', field: 'tier' },
-            fill: { value: '#ffffff' },
-            size: { value: 40 },
-            strokeWidth: { value: 1.5 },
-          },
-        },
-      },
-      {
-        type: 'text',
-        name: 'sweepLabels',
-        from: { data: 'endLabels' },
-        encode: {
-          enter: {
-            x: { scale: 'x', field: 'threshold', offset: 8 },
-            y: { scale: 'y', field: 'count' },
-            dy: { field: 'dy' },
-            text: { field: 'text' },
-            baseline: { value: 'middle' },
-            fill: { scale: 'stroke', field: 'tier' },
-            fontWeight: { value: 'bold' },
-          },
-        },
-      },
-      {
-        type: 'rule',
-        name: 'thresholdInUse',
-        from: { data: 'inUse' },
-        encode: {
-          enter: {
-            x: { scale: 'x', field: 'at' },
-            y: { value: -6 },
-            y2: { signal: 'height' },
-            stroke: { value: NEUTRAL.text },
-            strokeDash: { value: [5, 3] },
-            strokeWidth: { value: 1.25 },
-          },
-        },
-      },
-      {
-        type: 'text',
-        name: 'thresholdInUseLabel',
-        from: { data: 'inUse' },
-        encode: {
-          enter: {
-            x: { scale: 'x', field: 'at', offset: 3 },
-            y: { value: -8 },
-            text: { field: 'text' },
-            fontSize: { value: 10 },
-          },
-        },
-      },
+      seriesLines('sweepLines', series, 2),
+      seriesMarkers('sweepMarkers', series, 40),
+      dataMark('text', 'sweepLabels', 'endLabels', {
+        x: { scale: 'x', field: 'threshold', offset: 8 },
+        y: { scale: 'y', field: 'count' },
+        dy: { field: 'dy' },
+        text: { field: 'text' },
+        baseline: { value: 'middle' },
+        fill: { scale: 'stroke', field: 'tier' },
+        fontWeight: { value: 'bold' },
+      }),
+      referenceRules('thresholdInUse', 'inUse', { above: 6, strokeWidth: 1.25, stroke: { value: NEUTRAL.text }, strokeDash: { value: [5, 3] } }),
+      referenceLabels('thresholdInUseLabel', 'inUse', { value: -8 }, false),
     ],
-  };
+  });
   return renderVegaSvg(spec);
 }
