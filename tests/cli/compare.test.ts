@@ -1,7 +1,7 @@
 // `tierplan compare` on the invented spray-dryer sample, run as a user would (built CLI).
 // Run counts follow the design definitions: 2^5 + 3 centre runs for the conventional plan
 // over all five operating factors (common practice).
-import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { copyFileSync, mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -58,19 +58,51 @@ describe('tierplan compare', () => {
     expect(larger.comparators[0].runs).toBe(base.comparators[0].runs);
   });
 
-  it('prints an aligned table, the verdicts and the summary', () => {
+  it('prints the decision first, then aligned tables, the term-by-term powers, the column notes and the verdicts', () => {
     const result = runCli(['compare', planPath]);
     expect(result.status).toBe(0);
     const lines = result.stdout.split('\n');
-    const header = lines.find((line) => line.startsWith('Plan '))!;
-    expect(header).toMatch(/Runs +Fits model +D-eff \[%\]/);
-    expect(header).toContain('Cost [EUR]');
+    expect(lines[2]).toMatch(/^Decision: The proposed plan needs 25 runs where the conventional full factorial needs 35: 10 fewer/);
+    const header = lines.find((line) => line.startsWith('Plan ') && line.includes('Fit runs'))!;
+    expect(header).toMatch(/Fit runs +Fits model +D-eff \[%\] +Info\/run +Info total +Avg var \[σ²\] +Min power \[%\]/);
     const rule = lines[lines.indexOf(header) + 1];
     expect(rule).toMatch(/^-+( +-+)+$/);
-    expect(result.stdout).toMatch(/^Proposed +25 +yes/m);
-    expect(result.stdout).toMatch(/^Conventional 2\^5 +35 +no, /m);
-    expect(result.stdout).toContain('What each plan means:');
-    expect(lines.filter((line) => line.length > 0).at(-1)).toMatch(/^The proposed plan needs \d+ runs where the conventional full factorial needs 35/);
+    // Every row of a table is as wide as its rule or narrower (aligned columns, no wrapped cells).
+    for (const line of lines.slice(lines.indexOf(header), lines.indexOf(header) + 11)) expect(line.length).toBeLessThanOrEqual(rule.length);
+    expect(result.stdout).toMatch(/^Proposed +21 +yes +\d+\.\d +1\.00 +1\.00 /m); // 18 model + 3 centre runs are fitted
+    expect(result.stdout).toMatch(/^Conventional 2\^5 +35 +no, 5 terms/m);
+    const costHeader = lines.find((line) => line.startsWith('Plan ') && line.includes('Cost [EUR]'))!;
+    expect(costHeader).toMatch(/Runs +Off limits +Level changes +Cost \[EUR\] +Time \[h\] +Runs saved +Cost saved \[EUR\]/);
+    // 35 − 25 = 10 runs, 28.6 % of 35 (savings arithmetic of the issue, common practice).
+    expect(result.stdout).toMatch(/^Conventional 2\^5 +35 +\d+ +\d+ +29,990 +106\.4 +10 \(28\.6 %\) +7,780 \(25\.9 %\)$/m);
+    expect(result.stdout).toMatch(/^feed_solids\^3 +\d\.\d{3} +\d+\.\d +\d+\.\d$/m);
+    expect(result.stdout).toContain('D-eff: textbook D-efficiency 100·|X\'X|^(1/p)/N, relative to an ideal orthogonal');
+    expect(result.stdout).toContain('What each plan means');
+    expect(result.stdout).toMatch(/Confounded: inlet_temp\^3 with inlet_temp;/);
+    for (const line of lines) if (!line.startsWith('Plan') && !/^-+ /.test(line)) expect(line.length).toBeLessThanOrEqual(110);
+  });
+
+  it('lists the response-surface plans with a reason for a linear model (edited copy of the sample)', () => {
+    const linearDir = join(dir, 'linear');
+    mkdirSync(linearDir);
+    for (const name of ['indices.csv', 'interactions.csv']) copyFileSync(join('samples/spray-dryer', name), join(linearDir, name));
+    const text = readFileSync(study, 'utf8').replace('  criterion: D\n', '  criterion: D\n  model: linear\n');
+    writeFileSync(join(linearDir, 'study.yaml'), text);
+    const result = runCli(['compare', join(linearDir, 'study.yaml'), '--json']);
+    expect(result.status).toBe(0);
+    const comparison = JSON.parse(result.stdout) as Comparison;
+    for (const id of ['ccd-face', 'ccd-rotatable', 'box-behnken']) {
+      const row = comparison.comparators.find((r) => r.id === id)!;
+      expect(row.runs).toBeNull();
+      expect(row.reason).toMatch(/no squared terms/);
+    }
+    // 4 varied factors, main effects only: resolution IV is enough, 2^(4−1) with D = ±ABC
+    // (NIST/SEMATECH e-Handbook §5.3.3.4.7), + 3 centre runs.
+    const fractional = comparison.comparators.find((r) => r.id === 'fractional')!;
+    expect(fractional.runs).toBe(11);
+    expect(fractional.generators).toEqual([expect.stringMatching(/^D=-?ABC$/)]);
+    expect(fractional.resolution).toBe(4);
+    expect(fractional.wordLengthPattern).toEqual([0, 1]);
   });
 
   it('refuses a bad --delta with one line and exit code 2, printing nothing', () => {

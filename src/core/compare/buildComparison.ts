@@ -77,6 +77,9 @@ export function buildComparison(plan: PlanDocument, options: ComparisonOptions =
       : (plan.schedule?.hardToChange?.levelChanges ??
         groupedLevelChanges(plan.runs.map((run) => codedOf(run.coded)), hardToChange, (id) => variedIds.indexOf(id)));
   const proposedRow = row('proposed', proposedLabel(fitPoints.length - centreRuns, centreRuns, holdoutRuns), plan.runs.length, proposedEvaluation, proposedChanges);
+  const allPoints = plan.runs.map((run) => codedOf(run.coded));
+  proposedRow.offLimitsRuns = allPoints.filter((x) => !region.isFeasible(x)).length;
+  proposedRow.runsOutsideRange = allPoints.filter((x) => x.some((value) => Math.abs(value) > 1 + 1e-9)).length;
   const verdictContext = { currency: costs?.currency ?? null, termCount: modelTerms.length, delta };
   proposedRow.verdict = proposedVerdict(proposedRow, fitPoints.length, holdoutRuns, verdictContext);
 
@@ -91,6 +94,7 @@ export function buildComparison(plan: PlanDocument, options: ComparisonOptions =
     hasSquares: termPowers.some((powers) => Object.values(powers).some((power) => power >= 2)),
     factors: plan.study.factors,
     region,
+    conventionalRegion: allOperatingRegion(plan),
   });
   const evaluations = new Map<ComparatorId, DesignEvaluation>([['proposed', proposedEvaluation]]);
   const rows: ComparatorRow[] = [proposedRow];
@@ -100,6 +104,10 @@ export function buildComparison(plan: PlanDocument, options: ComparisonOptions =
     const comparatorRow = design.points
       ? row(design.id, design.label, design.points.length, evaluation, design.levelChanges)
       : unbuiltRow(design);
+    if (design.points) {
+      comparatorRow.offLimitsRuns = design.offLimitsRuns;
+      comparatorRow.runsOutsideRange = design.runsOutsideRange;
+    }
     addRelative(comparatorRow, evaluation, proposedEvaluation, model);
     addSavings(comparatorRow, proposedRow);
     if (design.generators) {
@@ -129,6 +137,7 @@ export function buildComparison(plan: PlanDocument, options: ComparisonOptions =
     p: model.p,
     delta,
     alpha,
+    powerConvention: powerConvention(delta, alpha),
     predictionVarianceMethod: `${moments.method}; trace((X'X)⁻¹W) over the region`,
     currency: costs?.currency ?? null,
     comparators: rows,
@@ -158,7 +167,55 @@ export function buildComparison(plan: PlanDocument, options: ComparisonOptions =
       percentCostSaved: null,
       verdict: '',
       ...(evaluation?.minPower != null ? { minPowerTerm: weakestTerm(evaluation) } : {}),
+      ...(evaluation ? evaluationDetail(evaluation) : {}),
     };
+  }
+}
+
+/** The evaluation figures beyond the contract columns (optional fields of the row). */
+function evaluationDetail(evaluation: DesignEvaluation): Partial<ComparatorRow> {
+  return {
+    fittingRuns: evaluation.runs,
+    aCriterion: evaluation.aCriterion,
+    gEfficiency: evaluation.gEfficiency,
+    maxVif: evaluation.maxVif,
+    aliases: evaluation.nonEstimable.map((entry) => ({ term: entry.term, aliasedWith: entry.aliasedWith.map((a) => ({ ...a })) })),
+    terms: evaluation.terms.map((term) => ({ ...term })),
+  };
+}
+
+/** The power convention in words (termPower.ts), stored with the figures it explains. */
+function powerConvention(delta: number, alpha: number): string {
+  return (
+    `Power: the chance that a two-sided t-test at α = ${alpha} declares a term non-zero when that term alone moves ` +
+    `the response by ${delta}σ across the studied range (coefficient ${delta}σ/2 for a linear, cubic or interaction term, ` +
+    `${delta}σ for a squared term; σ = the run-to-run standard deviation). A term whose column overlaps other terms ` +
+    `(high VIF, e.g. a factor's linear and cubic terms) is estimated imprecisely on its own and gets low power.`
+  );
+}
+
+/**
+ * The region over every operating factor at two levels and the centre, so that the
+ * conventional plan's runs are checked with the factors the proposed plan holds fixed varied
+ * too; undefined when no run of that grid satisfies the constraints (then the conventional
+ * plan is checked on its projection onto the varied factors only).
+ */
+function allOperatingRegion(plan: PlanDocument): CandidateRegion | undefined {
+  const levelOf = new Map(plan.levels.map((level) => [level.id, level]));
+  const levels = plan.study.factors
+    .filter((factor) => factor.role === 'operating')
+    .map((factor) => ({
+      ...(levelOf.get(factor.id) ?? { id: factor.id, name: factor.name, unit: factor.unit, tier: 'negligible' as const, reason: '' }),
+      varied: true,
+      values: [factor.low, (factor.low + factor.high) / 2, factor.high],
+      coded: [-1, 0, 1],
+      fixedAt: null,
+    }));
+  try {
+    return buildCandidateRegion(plan.study.factors, levels, plan.study.constraints, { enumerateLimit: 0 });
+  } catch (error) {
+    if (error instanceof InputError) return undefined;
+    throw error;
   }
 }
 

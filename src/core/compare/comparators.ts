@@ -15,7 +15,10 @@
  *   with minimum aberration among those of that size (Fries & Hunter, 1980, "Minimum
  *   aberration 2^(k−p) designs", Technometrics 22).
  * - The central composite and Box–Behnken plans are built only when the model has a squared
- *   term. A plan that cannot be built is returned with `points: null` and the reason.
+ *   term; without one they are still listed, with `points: null` and the reason, as is any
+ *   plan that cannot be built, so that no row disappears silently.
+ * - Runs are counted as off limits when the region calls them infeasible (equipment limits or
+ *   constraints) and as outside the range when a coded coordinate exceeds 1 in magnitude.
  */
 import type { CandidateRegion } from '../design/designTypes.js';
 import type { Factor } from '../study.js';
@@ -48,6 +51,8 @@ export interface ComparatorContext {
   hasSquares: boolean;
   factors: Factor[];
   region?: CandidateRegion;
+  /** Region over every operating factor (coordinates in `operatingIds` order), for the conventional plan. */
+  conventionalRegion?: CandidateRegion;
 }
 
 export interface ComparatorDesign {
@@ -60,8 +65,12 @@ export interface ComparatorDesign {
   generators?: string[];
   resolution?: number;
   wordLengthPattern?: number[];
-  /** Facts the verdict must mention: runs outside the study range, beyond limits, breaking constraints. */
+  /** Facts the verdict must mention besides feasibility: extra factors, axial runs outside the range. */
   notes: string[];
+  /** Runs breaking constraints or equipment limits (0 when no region is given or nothing was built). */
+  offLimitsRuns: number;
+  /** Runs with a coded coordinate beyond ±1. */
+  runsOutsideRange: number;
 }
 
 export function buildComparators(context: ComparatorContext): ComparatorDesign[] {
@@ -72,7 +81,7 @@ export function buildComparators(context: ComparatorContext): ComparatorDesign[]
     plackettBurman(context),
     grid(context),
   ];
-  if (context.hasSquares) designs.push(...responseSurfacePlans(context));
+  designs.push(...(context.hasSquares ? responseSurfacePlans(context) : responseSurfaceNotNeeded()));
   return designs;
 }
 
@@ -88,11 +97,17 @@ function variedColumn(context: ComparatorContext): (id: string) => number {
   return (id) => context.variedIds.indexOf(id);
 }
 
-function finish(context: ComparatorContext, design: Omit<ComparatorDesign, 'levelChanges' | 'notes'>, notes: string[] = []): ComparatorDesign {
+type DesignCore = Omit<ComparatorDesign, 'levelChanges' | 'notes' | 'offLimitsRuns' | 'runsOutsideRange'>;
+
+function finish(context: ComparatorContext, design: DesignCore, notes: string[] = []): ComparatorDesign {
   const points = design.points;
   const levelChanges =
     points && context.hardToChange.length > 0 ? groupedLevelChanges(points, context.hardToChange, variedColumn(context)) : null;
-  return { ...design, levelChanges, notes: points ? [...notes, ...feasibilityNotes(context, points)] : notes };
+  return { ...design, levelChanges, notes, ...placement(context, points) };
+}
+
+function unbuilt(id: ComparatorId, label: string, reason: string): ComparatorDesign {
+  return { id, label, points: null, reason, levelChanges: null, notes: [], offLimitsRuns: 0, runsOutsideRange: 0 };
 }
 
 function conventional(context: ComparatorContext): ComparatorDesign {
@@ -100,16 +115,7 @@ function conventional(context: ComparatorContext): ComparatorDesign {
   const k = context.variedIds.length;
   const c = context.centreRuns;
   const label = `Two-level full factorial over all ${K} operating factors + ${centreText(c)}`;
-  if (K > MAX_CONVENTIONAL_FACTORS) {
-    return {
-      id: 'conventional',
-      label,
-      points: null,
-      reason: `2^${K} = ${2 ** K} runs is too large to build and evaluate`,
-      levelChanges: null,
-      notes: [],
-    };
-  }
+  if (K > MAX_CONVENTIONAL_FACTORS) return unbuilt('conventional', label, `2^${K} = ${2 ** K} runs is too large to build and evaluate`);
   const all = withCentres(twoLevelFullFactorial(K), K, c);
   const columns = context.variedIds.map((id) => context.operatingIds.indexOf(id));
   const points = all.map((x) => columns.map((j) => x[j]));
@@ -117,7 +123,10 @@ function conventional(context: ComparatorContext): ComparatorDesign {
     context.hardToChange.length > 0 ? groupedLevelChanges(all, context.hardToChange, (id) => context.operatingIds.indexOf(id)) : null;
   const extra = K - k;
   const notes = extra > 0 ? [`varies ${extra} factor${extra === 1 ? '' : 's'} the model does not need`] : [];
-  return { id: 'conventional', label, points, levelChanges, notes: [...notes, ...feasibilityNotes(context, points)] };
+  const offLimits = context.conventionalRegion
+    ? { offLimitsRuns: all.filter((x) => !context.conventionalRegion!.isFeasible(x)).length, runsOutsideRange: 0 }
+    : placement(context, points);
+  return { id: 'conventional', label, points, levelChanges, notes, ...offLimits };
 }
 
 function fullFactorial(context: ComparatorContext): ComparatorDesign {
@@ -137,14 +146,11 @@ function fractional(context: ComparatorContext): ComparatorDesign {
   const roman = minResolution === 5 ? 'V' : 'IV';
   const fraction = minimumAberrationFraction(k, minResolution);
   if (!fraction) {
-    return {
-      id: 'fractional',
-      label: `Regular two-level fraction of resolution ${roman} or higher + ${centreText(c)}`,
-      points: null,
-      reason: `no regular fraction of ${k} factors reaches resolution ${roman}`,
-      levelChanges: null,
-      notes: [],
-    };
+    return unbuilt(
+      'fractional',
+      `Regular two-level fraction of resolution ${roman} or higher + ${centreText(c)}`,
+      `no regular fraction of ${k} factors reaches resolution ${roman}`,
+    );
   }
   const label =
     fraction.p === 0
@@ -165,14 +171,7 @@ function plackettBurman(context: ComparatorContext): ComparatorDesign {
   const c = context.centreRuns;
   const screening = smallestPlackettBurman(k);
   if (!screening) {
-    return {
-      id: 'plackett-burman',
-      label: `Plackett–Burman screening plan + ${centreText(c)}`,
-      points: null,
-      reason: `no Plackett–Burman plan of 12, 20 or 24 runs takes ${k} factors`,
-      levelChanges: null,
-      notes: [],
-    };
+    return unbuilt('plackett-burman', `Plackett–Burman screening plan + ${centreText(c)}`, `no Plackett–Burman plan of 12, 20 or 24 runs takes ${k} factors`);
   }
   return finish(context, {
     id: 'plackett-burman',
@@ -186,14 +185,7 @@ function grid(context: ComparatorContext): ComparatorDesign {
   const size = counts.reduce((a, b) => a * b, 1);
   const shape = counts.join('×');
   if (size > MAX_GRID_RUNS) {
-    return {
-      id: 'full-grid',
-      label: `Every combination of the planned levels (${shape})`,
-      points: null,
-      reason: `${size} combinations is too large to build and evaluate`,
-      levelChanges: null,
-      notes: [],
-    };
+    return unbuilt('full-grid', `Every combination of the planned levels (${shape})`, `${size} combinations is too large to build and evaluate`);
   }
   const all = fullGrid(context.plannedLevels);
   const region = context.region;
@@ -231,18 +223,21 @@ function responseSurfacePlans(context: ComparatorContext): ComparatorDesign[] {
   ];
   const bbd = boxBehnken(k, c);
   if (bbd.points === null) {
-    designs.push({
-      id: 'box-behnken',
-      label: 'Box–Behnken',
-      points: null,
-      reason: 'reason' in bbd ? bbd.reason : `no Box–Behnken plan for ${k} factors`,
-      levelChanges: null,
-      notes: [],
-    });
+    designs.push(unbuilt('box-behnken', 'Box–Behnken', 'reason' in bbd ? bbd.reason : `no Box–Behnken plan for ${k} factors`));
   } else {
     designs.push(finish(context, { id: 'box-behnken', label: `Box–Behnken + ${centreText(c)}`, points: bbd.points }));
   }
   return designs;
+}
+
+/** Listed for a model without squared terms, so that the reader sees why they are absent. */
+function responseSurfaceNotNeeded(): ComparatorDesign[] {
+  const reason = 'the model has no squared terms, and estimating curvature is what this plan is for';
+  return [
+    unbuilt('ccd-face', 'Face-centred central composite', reason),
+    unbuilt('ccd-rotatable', 'Rotatable central composite', reason),
+    unbuilt('box-behnken', 'Box–Behnken', reason),
+  ];
 }
 
 /** Axial points at ±α lie outside the studied range; say whether they also pass the equipment limits. */
@@ -258,19 +253,21 @@ function axialNotes(context: ComparatorContext, alpha: number): string[] {
       beyond.push(`${id} (${round(low)}–${round(high)} ${factor.unit} against limits ${factor.limits.low}–${factor.limits.high})`);
     }
   }
-  const notes = [`its axial runs lie outside the studied range (±${round(alpha)} coded)`];
+  const notes = [
+    `its axial runs lie outside the studied range (±${round(alpha)} coded), so part of its information comes from settings where the model has not been studied`,
+  ];
   if (beyond.length > 0) notes.push(`axial settings beyond the equipment limits of ${beyond.join(', ')}`);
   return notes;
 }
 
-/** Runs outside equipment limits or constraints of the region. */
-function feasibilityNotes(context: ComparatorContext, points: number[][]): string[] {
+/** Runs outside equipment limits or constraints of the region, and runs outside the coded range. */
+function placement(context: ComparatorContext, points: number[][] | null): { offLimitsRuns: number; runsOutsideRange: number } {
+  if (!points) return { offLimitsRuns: 0, runsOutsideRange: 0 };
   const region = context.region;
-  if (!region) return [];
-  const infeasible = points.filter((x) => !region.isFeasible(x)).length;
-  if (infeasible === 0) return [];
-  const verb = infeasible === 1 ? 'breaks' : 'break';
-  return [`${infeasible} of its ${points.length} runs ${verb} the study's constraints or equipment limits and cannot be run as listed`];
+  return {
+    offLimitsRuns: region ? points.filter((x) => !region.isFeasible(x)).length : 0,
+    runsOutsideRange: points.filter((x) => x.some((value) => Math.abs(value) > 1 + 1e-9)).length,
+  };
 }
 
 function romanNumeral(resolution: number): string {

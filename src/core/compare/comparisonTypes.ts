@@ -49,6 +49,22 @@ export interface ComparatorRow {
   costSaved: number | null;
   percentCostSaved: number | null;
   verdict: string;
+  /** Runs the figures are computed on: every run of a comparator; fit + centre runs of the proposed plan (optional addition). */
+  fittingRuns?: number;
+  /** Runs that break the study's constraints or equipment limits, so cannot be run as listed (optional addition). */
+  offLimitsRuns?: number;
+  /** Runs outside the studied range, coded |x| > 1, e.g. rotatable axial runs (optional addition). */
+  runsOutsideRange?: number;
+  /** A-criterion trace((X'X)⁻¹)/p in σ² units; null when the model cannot be fitted (optional addition). */
+  aCriterion?: number | null;
+  /** G-efficiency in %, against the p/N floor of the largest scaled prediction variance (optional addition). */
+  gEfficiency?: number | null;
+  /** Largest variance inflation factor over the model terms (optional addition). */
+  maxVif?: number | null;
+  /** Terms that cannot be estimated and the estimated terms they are aliased with, from the alias matrix (optional addition). */
+  aliases?: { term: string; aliasedWith: { term: string; coefficient: number }[] }[];
+  /** Every model term of a plan that fits: standard error (σ units), VIF and power (optional addition). */
+  terms?: { term: string; standardError: number; vif: number | null; power: number | null }[];
   /** Only on `fractional`. */
   generators?: string[];
   resolution?: number;
@@ -62,6 +78,8 @@ export interface Comparison {
   /** Effect size in σ units and test level used for the power figures. */
   delta: number;
   alpha: number;
+  /** What the power figures mean, in words (optional addition). */
+  powerConvention?: string;
   /** How the average prediction variance was obtained (exact moments or quasi-random average). */
   predictionVarianceMethod: string;
   currency: string | null;

@@ -4,9 +4,19 @@
  *
  * Conventions fixed here: money is printed to whole units with the study's currency code
  * before it, hours to one decimal, percentages to one decimal; missing terms are grouped by
- * kind (squared, cubic, interaction) so that a long list stays readable.
+ * kind (squared, cubic, interaction) so that a long list stays readable; a plan with runs
+ * that break the study's constraints or equipment limits says so first, because its figures
+ * describe runs that cannot be made as listed; power is reported as how many terms reach
+ * `GOOD_POWER`, then the weakest term with its variance inflation factor when that is what
+ * makes it weak (VIF ≥ `OVERLAP_VIF`, Montgomery, Peck & Vining 2012 §9.4 treat VIF above 5–10
+ * as a sign of serious overlap).
  */
 import type { ComparatorRow, Comparison } from './comparisonTypes.js';
+
+/** Power at which a term counts as reliably detected (common practice: 80 %). */
+export const GOOD_POWER = 0.8;
+/** VIF from which a weak term is said to overlap other terms. */
+export const OVERLAP_VIF = 5;
 
 export interface VerdictContext {
   currency: string | null;
@@ -20,9 +30,7 @@ export function proposedVerdict(row: ComparatorRow, fittingRuns: number, holdout
   if (!row.fitsModel) return `Cannot estimate ${describeTerms(row.missingTerms)}: the plan does not fit its own model.`;
   const holdout = holdoutRuns > 0 ? `, plus ${holdoutRuns} holdout run${holdoutRuns === 1 ? '' : 's'} to check predictions` : '';
   const power =
-    row.minPower === null
-      ? ' No residual degrees of freedom are left to test the terms.'
-      : ` Every term is detected with power ≥ ${percent(row.minPower * 100)} % when it moves the response by ${context.delta}σ${weakest(row)}.`;
+    row.minPower === null ? ' No residual degrees of freedom are left to test the terms.' : ` ${powerSentence(row, context.delta)}`;
   return `Estimates all ${context.termCount} model terms from ${fittingRuns} fitting runs${holdout}.${power}`;
 }
 
@@ -30,6 +38,9 @@ export function proposedVerdict(row: ComparatorRow, fittingRuns: number, holdout
 export function comparatorVerdict(row: ComparatorRow, proposed: ComparatorRow, notes: readonly string[], context: VerdictContext): string {
   if (row.runs === null) return `Not built: ${row.reason ?? 'no plan of this kind exists here'}.`;
   const sentences: string[] = [];
+  // A plan that fits but cannot be run says so first: its good figures describe runs nobody can make.
+  const offLimits = row.offLimitsRuns ? `Cannot be run as listed: ${offLimitsText(row)}.` : null;
+  if (offLimits && row.fitsModel) sentences.push(offLimits);
   let fit: string;
   if (row.fitsModel === false) {
     fit = `Cannot estimate ${describeTerms(row.missingTerms)}`;
@@ -40,6 +51,7 @@ export function comparatorVerdict(row: ComparatorRow, proposed: ComparatorRow, n
     fit = 'Fits the model';
   }
   sentences.push(`${fit}; ${runsText(row.runs - (proposed.runs ?? 0))}${costText(row, proposed, context.currency)}.`);
+  if (offLimits && !row.fitsModel) sentences.push(offLimits);
   for (const note of notes) sentences.push(`${capitalise(note)}.`);
   return sentences.join(' ');
 }
@@ -52,14 +64,9 @@ export function comparisonSummary(comparison: Omit<Comparison, 'summary'>): stri
     comparison.comparators.find((row) => row.id === 'conventional' && row.runs !== null) ??
     comparison.comparators.find((row) => row.id !== 'proposed' && row.runs !== null);
   const termCount = comparison.modelTerms.length;
-  const still = proposed.fitsModel
-    ? `It still estimates all ${termCount} model terms${
-        proposed.minPower === null
-          ? ''
-          : `, each with power ≥ ${percent(proposed.minPower * 100)} % for an effect of ${comparison.delta}σ${weakest(proposed)}`
-      }`
-    : `It cannot estimate ${describeTerms(proposed.missingTerms)}`;
-  if (!reference || reference.runs === null) return `The proposed plan needs ${proposed.runs} runs. ${still}.`;
+  const still = proposed.fitsModel ? `It still estimates all ${termCount} model terms` : `It cannot estimate ${describeTerms(proposed.missingTerms)}`;
+  const power = proposed.fitsModel && proposed.minPower !== null ? ` ${powerSentence(proposed, comparison.delta)}` : '';
+  if (!reference || reference.runs === null) return `The proposed plan needs ${proposed.runs} runs. ${still}.${power}`;
   const name = reference.id === 'conventional' ? 'the conventional full factorial' : `the ${reference.label.charAt(0).toLowerCase()}${reference.label.slice(1)}`;
   const saved = reference.runs - proposed.runs;
   const savedText =
@@ -79,7 +86,12 @@ export function comparisonSummary(comparison: Omit<Comparison, 'summary'>): stri
   }
   const referenceFit =
     reference.fitsModel === false ? `, while ${name} cannot estimate ${describeTerms(reference.missingTerms)}` : '';
-  return `The proposed plan needs ${proposed.runs} runs where ${name} needs ${reference.runs}: ${savedText}${money}. ${still}${referenceFit}.`;
+  const offLimits = reference.offLimitsRuns ?? 0;
+  const referenceRunnable =
+    offLimits > 0
+      ? ` Besides, ${offLimits} of the ${reference.runs} runs of ${name} ${offLimits === 1 ? 'breaks' : 'break'} the study's constraints or equipment limits.`
+      : '';
+  return `The proposed plan needs ${proposed.runs} runs where ${name} needs ${reference.runs}: ${savedText}${money}. ${still}${referenceFit}.${referenceRunnable}${power}`;
 }
 
 /** "the squared terms of a and b, the cubic term of c and the interaction a*b". */
@@ -103,8 +115,36 @@ export function describeTerms(terms: readonly string[]): string {
   return list(parts);
 }
 
-function weakest(row: ComparatorRow): string {
-  return row.minPowerTerm ? ` (lowest: ${row.minPowerTerm})` : '';
+/**
+ * "A term that moves the response by 2σ is detected with at least 80 % power for 9 of the 13
+ * terms; the weakest, feed_solids^3 (8.9 %), overlaps other terms (VIF 27)."
+ */
+export function powerSentence(row: ComparatorRow, delta: number): string {
+  if (row.minPower === null) return '';
+  const powers = (row.terms ?? []).filter((term) => term.power !== null);
+  const good = powers.filter((term) => (term.power as number) >= GOOD_POWER).length;
+  const effect = `A term that moves the response by ${delta}σ across the studied range`;
+  if (powers.length > 0 && good === powers.length) {
+    return `${effect} is detected with at least ${Math.round(GOOD_POWER * 100)} % power for every term (lowest ${percent(row.minPower * 100)} %).`;
+  }
+  const share =
+    powers.length === 0
+      ? ':'
+      : good === 0
+        ? ` is detected with less than ${Math.round(GOOD_POWER * 100)} % power for every term;`
+        : ` is detected with at least ${Math.round(GOOD_POWER * 100)} % power for ${good} of the ${powers.length} terms;`;
+  const weakestTerm = powers.find((term) => term.term === row.minPowerTerm);
+  const overlap =
+    weakestTerm?.vif != null && weakestTerm.vif >= OVERLAP_VIF
+      ? `, because it overlaps other terms (VIF ${Math.round(weakestTerm.vif)}) and is estimated imprecisely on its own`
+      : '';
+  const name = row.minPowerTerm ? `${row.minPowerTerm} at ` : '';
+  return `${effect}${share} the weakest is ${name}${percent(row.minPower * 100)} %${overlap}.`;
+}
+
+function offLimitsText(row: ComparatorRow): string {
+  const count = row.offLimitsRuns ?? 0;
+  return `${count} of its ${row.runs} runs ${count === 1 ? 'breaks' : 'break'} the study's constraints or equipment limits`;
 }
 
 function list(items: readonly string[]): string {

@@ -113,9 +113,41 @@ describe('buildComparison: 3 varied factors, quadratic model, 1 fixed factor', (
     // column over the 8 cube runs), main effects 1/(1/√10) = 3.16, squared terms 2/0.6159 = 3.25
     // (se from numpy on these 16 points): the interactions are the weakest terms.
     expect(rowOf('proposed').minPowerTerm).toMatch(/^[abc]\*[abc]$/);
-    expect(rowOf('proposed').verdict).toContain(`(lowest: ${rowOf('proposed').minPowerTerm})`);
+    expect(rowOf('proposed').verdict).toContain(`the weakest is ${rowOf('proposed').minPowerTerm} at `);
     expect(comparison.summary).toMatch(/^The proposed plan needs 18 runs where the conventional full factorial needs 18: as many runs, costing EUR 100 more\./);
     expect(comparison.summary).toMatch(/cannot estimate the squared terms of b and c/);
+  });
+});
+
+describe('buildComparison: evaluation details on each row', () => {
+  it('aliases from the alias matrix: with centre runs the squared terms of a two-level plan coincide (Montgomery 2017, §6.8)', () => {
+    // Term order a, b, c, a*b, a*c, b*c, a^2, b^2, c^2: a^2 is kept (the centre runs separate it
+    // from the intercept), b^2 and c^2 equal a^2 on every run, alias coefficient 1.
+    const aliases = rowOf('full-factorial').aliases!;
+    expect(aliases.map((entry) => entry.term)).toEqual(['b^2', 'c^2']);
+    for (const entry of aliases) expect(entry.aliasedWith).toEqual([{ term: 'a^2', coefficient: 1 }]);
+    expect(rowOf('proposed').aliases).toEqual([]);
+  });
+
+  it('carries A-criterion, G-efficiency, max VIF and the per-term figures of every row that fits', () => {
+    for (const row of comparison.comparators.filter((r) => r.fitsModel)) {
+      expect(row.terms).toHaveLength(comparison.p);
+      expect(row.aCriterion!).toBeGreaterThan(0);
+      expect(row.gEfficiency!).toBeGreaterThan(0);
+      expect(row.gEfficiency!).toBeLessThanOrEqual(100 + 1e-9); // G ≤ 100 % (Kiefer & Wolfowitz 1960)
+      expect(row.maxVif!).toBeGreaterThanOrEqual(1 - 1e-12); // VIF ≥ 1 by definition (Marquardt 1970)
+      const powers = row.terms!.filter((term) => term.power !== null).map((term) => term.power!);
+      expect(Math.min(...powers)).toBeCloseTo(row.minPower!, 12);
+    }
+    expect(rowOf('proposed').fittingRuns).toBe(16); // 14 fit + 2 centre; holdout runs are not fitted
+    expect(comparison.powerConvention).toMatch(/moves the response by 2σ across the studied range/);
+  });
+
+  it('counts runs outside the coded range and off limits', () => {
+    // Rotatable composite in 3 factors: the 6 axial runs at ±1.682 leave [−1, 1] (Box & Hunter 1957).
+    expect(rowOf('ccd-rotatable').runsOutsideRange).toBe(6);
+    expect(rowOf('ccd-face').runsOutsideRange).toBe(0);
+    expect(rowOf('proposed').offLimitsRuns).toBe(0);
   });
 });
 
@@ -145,9 +177,12 @@ describe('buildComparison: 5 two-level factors, main effects and one interaction
     expect(fractional.label).toMatch(/2\^\(5−1\) fraction, resolution V/);
   });
 
-  it('omits the response-surface plans for a model without squared terms', () => {
-    expect(result.comparators.map((r) => r.id)).not.toContain('ccd-face');
-    expect(result.comparators.map((r) => r.id)).not.toContain('box-behnken');
+  it('lists the response-surface plans unbuilt, with the reason, for a model without squared terms', () => {
+    for (const id of ['ccd-face', 'ccd-rotatable', 'box-behnken'] as const) {
+      expect(row(id).runs).toBeNull();
+      expect(row(id).reason).toMatch(/no squared terms/);
+      expect(row(id).verdict).toMatch(/^Not built: the model has no squared terms/);
+    }
     expect(row('plackett-burman').runs).toBe(13);
     expect(row('conventional').runs).toBe(33);
     expect(row('full-grid').runs).toBe(32);
@@ -185,8 +220,39 @@ describe('buildComparison: 2 varied factors with a constraint', () => {
     expect(row('full-factorial').verdict).toMatch(/1 of its 6 runs breaks the study's constraints/);
   });
 
+  it('a plan that fits but breaks a constraint says so first', () => {
+    const rotatable = row('ccd-rotatable');
+    expect(rotatable.fitsModel).toBe(true);
+    expect(rotatable.offLimitsRuns).toBeGreaterThan(0);
+    expect(rotatable.verdict).toMatch(/^Cannot be run as listed: \d+ of its \d+ runs break/);
+  });
+
   it('uses constrained-region moments for the average prediction variance', () => {
     expect(result.predictionVarianceMethod).not.toMatch(/uncut box/);
     expect(row('proposed').averagePredictionVariance).toBeGreaterThan(0);
+  });
+});
+
+describe('buildComparison: a constraint on a factor the proposed plan holds fixed', () => {
+  // r is negligible and held at its nominal 5, where p + r ≤ 15 always holds; the conventional
+  // plan varies r too, and its corners with p = r = 10 break the constraint (2 of the 2^3
+  // corners; the centre run p = q = r = 5 is fine). Counted by hand.
+  const plan = planFixture({
+    factors: [operatingFactor('p', 0, 10), operatingFactor('q', 0, 10), operatingFactor('r', 0, 10)],
+    varied: { p: [-1, 0, 1], q: [-1, 0, 1] },
+    terms: ['p', 'q', 'p*q'],
+    fit: [[-1, -1], [1, -1], [-1, 1], [1, 1], [0, -1], [-1, 0]],
+    centre: 1,
+    holdout: [],
+    constraints: ['p + r <= 15'],
+  });
+  const result = buildComparison(plan);
+  const conventional = result.comparators.find((r) => r.id === 'conventional')!;
+
+  it('checks the conventional plan with every operating factor varied, not only its projection', () => {
+    expect(conventional.runs).toBe(9);
+    expect(conventional.offLimitsRuns).toBe(2);
+    expect(conventional.verdict).toMatch(/Cannot be run as listed: 2 of its 9 runs break/);
+    expect(result.comparators.find((r) => r.id === 'full-factorial')!.offLimitsRuns).toBe(0);
   });
 });

@@ -120,3 +120,29 @@ describe('evaluateDesign: edge cases', () => {
     expect(evaluation.nonEstimable.map((t) => t.term)).toEqual(['a^2', 'b^2']);
   });
 });
+
+describe('evaluateDesign: power of linear and cubic terms of one factor (scipy fixture)', () => {
+  // tests/reference/evaluate/generate.py, case 5: four evenly spaced levels twice + 3 centre
+  // runs, model 1, x, x², x³; scipy.stats.nct power with β = δσ/range (x, x³: range 2; x²: 1).
+  // The fixture shows why a cubic term reads weak even on a plan that spreads its levels
+  // evenly: x and x³ overlap (VIF 12.7), so each coefficient alone is imprecise.
+  const cubic = compileModel([{ powers: {} }, { powers: { x: 1 } }, { powers: { x: 2 } }, { powers: { x: 3 } }], ['x']);
+  const evaluation = evaluateDesign(cubic, fixture.cubic1FourLevels.points, {
+    moments: cubeMoments(cubic),
+    termLabels: ['1', 'x', 'x^2', 'x^3'],
+  });
+
+  it('standard errors, VIFs and powers per term agree with numpy/scipy', () => {
+    expect(evaluation.residualDf).toBe(fixture.cubic1FourLevels.residualDf);
+    fixture.cubic1FourLevels.terms.forEach((reference, j) => {
+      const term = evaluation.terms[j];
+      expect(term.term).toBe(reference.term);
+      expect(term.standardError).toBeCloseTo(reference.standardError, 10);
+      if (reference.vif === null) expect(term.vif).toBeNull();
+      else expect(term.vif!).toBeCloseTo(reference.vif, 8);
+      if (reference.power === null) expect(term.power).toBeNull();
+      else expect(term.power!).toBeCloseTo(reference.power, 6);
+    });
+    expect(evaluation.minPower!).toBeCloseTo(fixture.cubic1FourLevels.terms[3].power!, 6);
+  });
+});

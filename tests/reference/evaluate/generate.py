@@ -113,6 +113,37 @@ out["factorial2cubedCentre3"] = {
     "mainEffectPower": float(1 - stats.nct.cdf(tcf, dff, ncpf) + stats.nct.cdf(-tcf, dff, ncpf)),
 }
 
+# 5. One factor at four equally spaced levels (-1, -1/3, 1/3, 1), each twice, + 3 centre runs,
+#    cubic model 1, x, x^2, x^3. Power convention of termPower.ts: the term alone moves the
+#    response by delta*sigma across [-1, 1], so beta = delta/2 for x and x^3 (range 2) and
+#    delta/1 for x^2 (range 1); delta = 2, alpha = 0.05. VIF = 1/(1 - R^2) of each column
+#    regressed on the others (with intercept), the textbook definition.
+levels4 = [-1.0, -1.0 / 3.0, 1.0 / 3.0, 1.0]
+xc = np.array(levels4 * 2 + [0.0] * 3)
+Xc = np.column_stack([np.ones_like(xc), xc, xc**2, xc**3])
+Cc = np.linalg.inv(Xc.T @ Xc)
+dfc = Xc.shape[0] - Xc.shape[1]
+tcc = stats.t.ppf(0.975, dfc)
+ranges = [None, 2.0, 1.0, 2.0]
+cubic_terms = []
+for j, name in enumerate(["1", "x", "x^2", "x^3"]):
+    se = float(np.sqrt(Cc[j, j]))
+    if j == 0:
+        cubic_terms.append({"term": name, "standardError": se, "vif": None, "power": None})
+        continue
+    ncp = 2.0 / ranges[j] / se
+    others = np.delete(Xc, j, axis=1)
+    coef, *_ = np.linalg.lstsq(others, Xc[:, j], rcond=None)
+    resid = Xc[:, j] - others @ coef
+    r2 = 1 - resid @ resid / np.sum((Xc[:, j] - Xc[:, j].mean()) ** 2)
+    cubic_terms.append({
+        "term": name,
+        "standardError": se,
+        "vif": float(1 / (1 - r2)),
+        "power": float(stats.nct.sf(tcc, dfc, ncp) + stats.nct.cdf(-tcc, dfc, ncp)),
+    })
+out["cubic1FourLevels"] = {"points": [[float(v)] for v in xc], "residualDf": int(dfc), "terms": cubic_terms}
+
 path = pathlib.Path(__file__).with_name("evaluate.json")
 path.write_text(json.dumps(out, indent=2) + "\n")
 print(f"wrote {path}")
