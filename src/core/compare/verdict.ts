@@ -65,7 +65,7 @@ export function comparisonSummary(comparison: Omit<Comparison, 'summary'>): stri
     comparison.comparators.find((row) => row.id !== 'proposed' && row.runs !== null);
   const termCount = comparison.modelTerms.length;
   const still = proposed.fitsModel ? `It still estimates all ${termCount} model terms` : `It cannot estimate ${describeTerms(proposed.missingTerms)}`;
-  const power = proposed.fitsModel && proposed.minPower !== null ? ` ${powerSentence(proposed, comparison.delta)}` : '';
+  const power = proposed.fitsModel && proposed.minPower !== null ? ` ${powerSentence(proposed, comparison.delta)}${gridPower(comparison, proposed)}` : '';
   if (!reference || reference.runs === null) return `The proposed plan needs ${proposed.runs} runs. ${still}.${power}`;
   const name = reference.id === 'conventional' ? 'the conventional full factorial' : `the ${reference.label.charAt(0).toLowerCase()}${reference.label.slice(1)}`;
   const saved = reference.runs - proposed.runs;
@@ -140,6 +140,17 @@ export function powerSentence(row: ComparatorRow, delta: number): string {
       : '';
   const name = row.minPowerTerm ? `${row.minPowerTerm} at ` : '';
   return `${effect}${share} the weakest is ${name}${percent(row.minPower * 100)} %${overlap}.`;
+}
+
+/**
+ * A yardstick for a weak figure: what running every combination of the planned levels would
+ * reach, so that a reader can tell a small plan's weakness from one the model itself brings.
+ */
+function gridPower(comparison: Omit<Comparison, 'summary'>, proposed: ComparatorRow): string {
+  const grid = comparison.comparators.find((row) => row.id === 'full-grid');
+  if (proposed.minPower === null || proposed.minPower >= GOOD_POWER || !grid?.fitsModel || grid.minPower === null) return '';
+  const term = grid.minPowerTerm ? `, weakest ${grid.minPowerTerm}` : '';
+  return ` Running every combination of the planned levels (${grid.runs} runs) would reach ${percent(grid.minPower * 100)} %${term}.`;
 }
 
 function offLimitsText(row: ComparatorRow): string {
