@@ -224,10 +224,12 @@ function mapColumns<C extends string, R extends C>(
   for (const [canonical, names] of Object.entries(aliases) as [C, readonly string[]][]) {
     for (const name of names) byAlias.set(name, canonical);
   }
-  const headerLocation = (column: number): InputLocation =>
-    table.format === 'json'
-      ? { file: table.file, column: table.header[column] }
-      : { file: table.file, ...table.headerAt, column: table.header[column] || `#${column + 1}` };
+  // A JSON table has no header row: point at the first entry that carries the key.
+  const headerLocation = (column: number): InputLocation => {
+    if (table.format !== 'json') return { file: table.file, ...table.headerAt, column: table.header[column] || `#${column + 1}` };
+    const entry = table.rows.find((row) => row.cells[column] !== null) ?? table.rows[0];
+    return entry ? cellLocation(table, entry, column) : { file: table.file, column: table.header[column] };
+  };
   const found: Partial<Record<C, number>> = {};
   table.header.forEach((text, column) => {
     if (text === '') {
@@ -334,7 +336,9 @@ function requireBoundPairs(table: TableRows, columns: Partial<Record<IndexColumn
     const column = table.header[columns[given] as number];
     throw new InputError(
       `column "${column}" has no partner column ${missing}; a confidence interval needs both bounds (or leave both columns out)`,
-      table.format === 'json' ? { file: table.file, column } : { file: table.file, ...table.headerAt, column },
+      table.format === 'json'
+        ? cellLocation(table, table.rows.find((row) => row.cells[columns[given] as number] !== null) ?? table.rows[0], columns[given] as number)
+        : { file: table.file, ...table.headerAt, column },
     );
   }
 }

@@ -34,7 +34,7 @@ import {
   type TierPolicy,
 } from '../core/study.js';
 import { readIndexTable, readInteractionTable } from './indexTables.js';
-import { fileSystemProblem } from './tableRows.js';
+import { fileSystemProblem, parseJsonText } from './tableRows.js';
 import { didYouMean } from './suggestKey.js';
 
 export const STUDY_EXTENSIONS = ['.yaml', '.yml', '.json'] as const;
@@ -198,11 +198,7 @@ async function readStudyDocument(path: string): Promise<unknown> {
 
   let data: unknown;
   if (extension === '.json') {
-    try {
-      data = JSON.parse(text);
-    } catch (error) {
-      throw new InputError(`is not valid JSON (${(error as Error).message})`, { file: path });
-    }
+    data = parseJsonText(text, path);
   } else {
     const lineCounter = new LineCounter();
     const parsed = parseDocument(text, { prettyErrors: false, lineCounter });

@@ -24,6 +24,7 @@
 import { readFile, stat } from 'node:fs/promises';
 import { extname } from 'node:path';
 import { parse as parseCsv } from 'csv-parse/sync';
+import { LineCounter, parseDocument } from 'yaml';
 import type ExcelJS from 'exceljs';
 import { InputError, type InputLocation } from '../core/inputError.js';
 
@@ -294,15 +295,54 @@ function workbookCell(value: ExcelJS.CellValue | undefined): CellValue {
 
 // ---------------------------------------------------------------------------------- JSON
 
-function readJsonRows(bytes: Uint8Array, file: string): TableRows {
-  const text = decodeUtf8Text(bytes, file);
-  if (text.trim() === '') throw new InputError('is empty', { file });
+/**
+ * JSON text to a value, or one line saying what is wrong and where. `JSON.parse` alone lets
+ * a repeated key win silently, and its messages quote the text around the fault (line
+ * breaks included) without a line number; the yaml parser reading the same text under its
+ * JSON schema supplies line and column. `NaN` and `Infinity` (which Python's json module
+ * writes by default) get their own advice.
+ */
+export function parseJsonText(text: string, file: string): unknown {
   let data: unknown;
+  let failure: string | undefined;
   try {
     data = JSON.parse(text);
   } catch (error) {
-    throw new InputError(`is not valid JSON (${(error as Error).message})`, { file });
+    failure = (error as Error).message;
   }
+  const lineCounter = new LineCounter();
+  const { errors } = parseDocument(text, { schema: 'json', lineCounter, prettyErrors: false });
+  const where = (offset: number): string => {
+    const { line, col } = lineCounter.linePos(offset);
+    return `line ${line}, column ${col}`;
+  };
+  if (failure === undefined) {
+    const repeated = errors.find((error) => error.code === 'DUPLICATE_KEY');
+    if (repeated) {
+      // The error points at the opening quote of the repeated key.
+      const key = /^"(?:[^"\\]|\\.)*"/.exec(text.slice(repeated.pos[0]))?.[0] ?? 'a key';
+      throw new InputError(`repeats the key ${key} at ${where(repeated.pos[0])}; give each key once`, { file });
+    }
+    return data;
+  }
+  const problem = errors[0];
+  const nonFinite = problem?.code === 'TAG_RESOLVE_FAILED' ? /"([+-]?(?:NaN|Infinity))"/.exec(problem.message) : null;
+  if (problem && nonFinite) {
+    throw new InputError(
+      `is not valid JSON at ${where(problem.pos[0])}: ${nonFinite[1]} is not a JSON value; write a number (or null where a value may be empty)`,
+      { file },
+    );
+  }
+  const position = /at position (\d+)/.exec(failure);
+  const at = position ? ` at ${where(Number(position[1]))}` : problem ? ` near ${where(problem.pos[0])}` : '';
+  const reason = failure.replace(/\s+/g, ' ').replace(/ (?:in JSON )?at position \d+.*$/, '');
+  throw new InputError(`is not valid JSON${at}: ${reason}`, { file });
+}
+
+function readJsonRows(bytes: Uint8Array, file: string): TableRows {
+  const text = decodeUtf8Text(bytes, file);
+  if (text.trim() === '') throw new InputError('is empty', { file });
+  const data = parseJsonText(text, file);
   let entries: unknown;
   let prefix = '';
   if (Array.isArray(data)) entries = data;

@@ -176,12 +176,22 @@ describe('file-level problems', () => {
     const bytes = Buffer.from(await workbook.xlsx.writeBuffer());
     await expectCsvError(bytes, 'indices.csv: is a zipped workbook, not text; give it the .xlsx extension or export it as CSV');
   });
-  it('invalid JSON', async () => {
-    const folder = writeFiles({ 'indices.json': '[{"factor": "temp",}]' });
-    const error: unknown = await readIndexTable(join(folder, 'indices.json'), 'indices.json', STUDY_IDS).catch((caught: unknown) => caught);
-    expect(error).toBeInstanceOf(InputError);
-    expect((error as InputError).describe()).toMatch(/^indices\.json: is not valid JSON \(/);
-  });
+  it('invalid JSON, with line and column', () =>
+    expectCsvError('[{"factor": "temp",}]', 'indices.json: is not valid JSON at line 1, column 20: Expected double-quoted property name', 'indices.json'));
+  // Python's json module writes NaN unquoted; JSON.parse's own message quotes the text around
+  // it, line breaks included, which used to split the error over two lines.
+  it('NaN in pretty-printed JSON is one line with line and column', () =>
+    expectCsvError(
+      '[\n  {\n    "factor": "temp",\n    "total": NaN,\n    "first": 0.1\n  }\n]',
+      'indices.json: is not valid JSON at line 4, column 14: NaN is not a JSON value; write a number (or null where a value may be empty)',
+      'indices.json',
+    ));
+  it('a key repeated inside one JSON row (JSON.parse would keep the last silently)', () =>
+    expectCsvError(
+      '[{"factor": "temp", "response": "titre", "first": 0.42, "total": 0.55,\n  "total": 0.6}]',
+      'indices.json: repeats the key "total" at line 2, column 3; give each key once',
+      'indices.json',
+    ));
   it('JSON that is not a list of rows', () =>
     expectCsvError('{"factor": "temp"}', 'indices.json: must hold an array of row objects, or an object with a "rows" array', 'indices.json'));
 });
@@ -233,6 +243,15 @@ describe('columns', () => {
     expectCsvError(
       'factor,response,first\ntemp,titre,0.4\n',
       'indices.csv, row 1: missing column total (also accepted: st, sti, total_order)',
+    ));
+  it('an unknown JSON key names the first entry that has it (a JSON table has no header row)', () =>
+    expectCsvError(
+      JSON.stringify([
+        { factor: 'temp', response: 'titre', first: 0.42, total: 0.55 },
+        { factor: 'temp', response: 'purity', first: 0.1, totl: 0.18 },
+      ]),
+      'indices.json, key [1].totl: unknown column "totl"; did you mean `total`?',
+      'indices.json',
     ));
   it('two columns meaning the same thing', () =>
     expectCsvError(

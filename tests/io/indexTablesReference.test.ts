@@ -13,6 +13,7 @@ import { join } from 'node:path';
 import { stringify } from 'yaml';
 import { describe, expect, it } from 'vitest';
 import { loadStudy } from '../../src/io/studyFile.js';
+import { decideTiers } from '../../src/core/sensitivity/decideTiers.js';
 import { writeFiles } from './studyScratch.js';
 
 const referenceFolder = new URL('../reference/ishigami-intake/', import.meta.url).pathname;
@@ -21,15 +22,17 @@ const reference = JSON.parse(readFileSync(join(referenceFolder, 'ishigami-intake
   closedForm: { first: number[]; total: number[] };
 };
 
-function ishigamiStudy(indices: string): string {
+function ishigamiStudy(indices: string, tables: Record<string, string> = {}, interactions?: string): string {
   const factor = (id: string) => ({ id, name: `Input ${id}`, unit: '-', role: 'operating', low: -3.14159, high: 3.14159, nominal: 0 });
   const folder = writeFiles({
     'study.yaml': stringify({
       title: 'Ishigami function (test reference)',
       factors: [factor('x1'), factor('x2'), factor('x3')],
       responses: [{ id: 'y', name: 'Ishigami output', unit: '-' }],
-      indices: join(referenceFolder, indices),
+      indices: indices in tables ? indices : join(referenceFolder, indices),
+      ...(interactions !== undefined ? { interactions } : {}),
     }),
+    ...tables,
   });
   return join(folder, 'study.yaml');
 }
@@ -77,5 +80,42 @@ describe('a table computed by scipy.stats.sobol_indices', () => {
     const semicolon = await loadStudy(ishigamiStudy('indices-semicolon.csv'));
     expect(semicolon.indices).toEqual(comma.indices);
     expect(semicolon.warnings.map((line) => line.replace('indices-semicolon.csv', 'indices.csv'))).toEqual(comma.warnings);
+  });
+});
+
+// The main job end to end: the table goes through intake, then the tier rule (default cut-offs
+// 0.30 / 0.05, common practice). Closed-form Ishigami indices (a = 7, b = 0.1; Ishigami &
+// Homma 1990, values as tabulated in Saltelli et al. 2008, "Global Sensitivity Analysis:
+// The Primer"): ST = 0.5576, 0.4424, 0.2437, so x1 and x2 are critical and x3 moderate, x3
+// purely through its interaction with x1 (S1 = 0, S13 = ST3 = 0.2437; S12 = S23 = 0).
+describe('intake then tiers on the Ishigami function', () => {
+  it('closed-form indices written as a table give the tiers those values imply', async () => {
+    const { first, total } = reference.closedForm;
+    const indices = ['factor,response,S1,ST', ...['x1', 'x2', 'x3'].map((id, i) => `${id},y,${first[i]},${total[i]}`)].join('\n');
+    const pairs = ['factor_a,factor_b,response,S2', 'x1,x2,y,0', `x1,x3,y,${total[2]}`, 'x2,x3,y,0'].join('\n');
+    const study = await loadStudy(ishigamiStudy('closed.csv', { 'closed.csv': indices, 'pairs.csv': pairs }, 'pairs.csv'));
+    expect(study.warnings).toEqual([]);
+    const result = decideTiers(study);
+    expect(result.factors.map((factor) => [factor.id, factor.tier])).toEqual([['x1', 'critical'], ['x2', 'critical'], ['x3', 'moderate']]);
+    expect(result.factors[0].aggregatedTotal).toBeCloseTo(0.5576, 4);
+    expect(result.factors[2].interactionShare).toBeCloseTo(0.2437, 4);
+    expect(result.factors[1].interactionShare).toBeCloseTo(0, 12);
+    expect(result.interactionPairs.map((pair) => [pair.factorA, pair.factorB])).toEqual([['x1', 'x3']]);
+    expect(result.interactionPairs[0].index).toBeCloseTo(0.2437, 4);
+  });
+
+  it('the scipy estimate gives the same tiers, none borderline: every bootstrap interval stays inside one tier', async () => {
+    const result = decideTiers(await loadStudy(ishigamiStudy('indices.csv')));
+    expect(result.factors.map((factor) => [factor.id, factor.tier, factor.borderline])).toEqual([
+      ['x1', 'critical', false],
+      ['x2', 'critical', false],
+      ['x3', 'moderate', false],
+    ]);
+    // x3's first-order estimate −0.0019 was clipped to 0, so its whole total is interaction.
+    expect(result.factors[2].interactionShare).toBeCloseTo(reference.rows[2].total, 12);
+    // Under the conservative policy x3 is tiered on its upper bound 0.290, still below 0.30.
+    const upper = decideTiers({ ...(await loadStudy(ishigamiStudy('indices.csv'))), policy: { ...result.policy, confidence: 'upper' } });
+    expect(upper.factors[2].decidedOn).toBeCloseTo(reference.rows[2].total_high, 12);
+    expect(upper.factors[2].tier).toBe('moderate');
   });
 });

@@ -191,7 +191,15 @@ describe('the study file itself', () => {
     const folder = writeFiles({ 'study.json': '{"title": }' });
     const error: unknown = await loadStudy(join(folder, 'study.json')).catch((caught: unknown) => caught);
     expect(error).toBeInstanceOf(InputError);
-    expect((error as InputError).describe()).toMatch(new RegExp(`^${folder}/study.json: is not valid JSON \\(`));
+    expect((error as InputError).describe()).toMatch(new RegExp(`^${folder}/study.json: is not valid JSON (at|near) line 1, column \\d+: `));
+  });
+  it('refuses a key given twice in a JSON study (YAML does too)', async () => {
+    const folder = writeFiles({ 'study.json': '{\n  "title": "a",\n  "title": "b"\n}' });
+    await expectInputError(
+      () => loadStudy(join(folder, 'study.json')),
+      `${folder}/study.json: repeats the key "title" at line 3, column 3; give each key once`,
+      folder,
+    );
   });
 });
 
