@@ -45,8 +45,9 @@ function plural(count: number, word: string): string {
 }
 
 interface DecisionView {
-  /** One or two sentences: the comparison's own summary, or what can be said without one. */
-  sentences: string[];
+  /** The decision in one or two sentences (bold), then the rest of the argument (plain). */
+  headline: string;
+  detail: string;
   /** Proposed against conventional, figure by figure; null when either row is missing or unbuilt. */
   figures: { measure: string; proposed: string; conventional: string; difference: string }[] | null;
   conventionalLabel: string;
@@ -59,14 +60,24 @@ function difference(proposed: number | null, conventional: number | null, format
   return saved >= 0 ? `${format(saved)} saved${percent}` : `${format(-saved)} extra${percent.replace('(-', '(+')}`;
 }
 
+/**
+ * Splits a paragraph into the decision proper (its first two sentences) and the rest. A
+ * sentence ends at a full stop followed by a space and a capital; decimals such as "28.6 %"
+ * never match.
+ */
+export function splitDecision(sentences: string[]): { headline: string; detail: string } {
+  const all = sentences.flatMap((text) => text.split(/(?<=\.)\s+(?=[A-Z])/));
+  return { headline: all.slice(0, 2).join(' '), detail: all.slice(2).join(' ') };
+}
+
 /** The decision: the comparison summary plus the proposed-versus-conventional figures. */
 function decisionView(plan: PlanDocument, comparison: Comparison | undefined): DecisionView {
   if (!comparison) {
     return {
-      sentences: [
+      ...splitDecision([
         `The proposed plan has ${plural(plan.runs.length, 'run')} and estimates all ${plan.metrics.p} parameters of the target model.`,
         'No comparison with conventional plans is stored in this plan, so this report claims no savings. Run the comparison stage to add one.',
-      ],
+      ]),
       figures: null,
       conventionalLabel: '',
     };
@@ -75,12 +86,12 @@ function decisionView(plan: PlanDocument, comparison: Comparison | undefined): D
   const proposed = comparison.comparators.find((row) => row.id === 'proposed');
   const conventional = comparison.comparators.find((row) => row.id === 'conventional');
   if (!proposed || !conventional || proposed.runs === null || conventional.runs === null) {
-    return { sentences: [comparison.summary, 'No conventional plan could be built for this study, so no savings are shown.'], figures: null, conventionalLabel: '' };
+    return { ...splitDecision([comparison.summary, 'No conventional plan could be built for this study, so no savings are shown.']), figures: null, conventionalLabel: '' };
   }
   const estimates = (row: ComparatorRow) =>
     row.fitsModel ? `all ${comparison.p}` : `${comparison.p - row.missingTerms.length} of ${comparison.p}`;
   return {
-    sentences: [comparison.summary],
+    ...splitDecision([comparison.summary]),
     conventionalLabel: conventional.label,
     figures: [
       { measure: 'Runs', proposed: grouped(proposed.runs), conventional: grouped(conventional.runs), difference: difference(proposed.runs, conventional.runs, (v) => grouped(v)) },
@@ -109,7 +120,21 @@ interface ComparatorView {
   cost: string;
   hours: string;
   runsSaved: string;
+  /** Runs that break the study's constraints or equipment limits, "8 of 27", "none" or a dash. */
+  outsideLimits: string;
   verdict: string;
+}
+
+/**
+ * Runs of a comparator that break the study's constraints or equipment limits. The comparison
+ * states this only in its verdict ("8 of its 27 runs break the study's constraints…"), so the
+ * count is read from there; a plan without that clause has none. A manager must see it in the
+ * table: a plan that estimates more but cannot be run as listed is no real alternative.
+ */
+export function runsOutsideLimits(row: Pick<ComparatorRow, 'runs' | 'verdict'>): string {
+  if (row.runs === null) return DASH;
+  const match = /(\d+) of its (\d+) runs? breaks? the study's constraints/.exec(row.verdict);
+  return match ? `${match[1]} of ${match[2]}` : 'none';
 }
 
 function comparatorView(row: ComparatorRow, currency: string | null): ComparatorView {
@@ -129,7 +154,7 @@ function comparatorView(row: ComparatorRow, currency: string | null): Comparator
     proposed: row.id === 'proposed',
     runs: row.runs === null ? DASH : grouped(row.runs),
     fits,
-    missingShort: row.runs === null || row.missingTerms.length === 0 ? '' : `misses ${plural(row.missingTerms.length, 'term')}`,
+    missingShort: row.runs === null || row.missingTerms.length === 0 ? '' : `${row.missingTerms.length} missing`,
     missing: row.runs === null ? (row.reason ?? '') : row.missingTerms.length ? `cannot estimate ${row.missingTerms.join(', ')}` : '',
     dEfficiency: fixed(row.dEfficiency, 1),
     informationPerRun: fixed(row.relativeInformationPerRun, 2),
@@ -139,6 +164,7 @@ function comparatorView(row: ComparatorRow, currency: string | null): Comparator
     cost: money(row.cost, currency),
     hours: grouped(row.hours, 0),
     runsSaved: saved,
+    outsideLimits: row.id === 'proposed' ? 'none' : runsOutsideLimits(row),
     verdict: row.verdict,
   };
 }
@@ -292,6 +318,7 @@ export async function managerReportHtml(plan: PlanDocument, schedule: Schedule |
       starts: String(plan.metrics.starts),
       runsNote: plan.metrics.runsNote,
       fitRuns: String(plan.metrics.N),
+      centreRuns: String(centreRuns),
     },
   });
 }

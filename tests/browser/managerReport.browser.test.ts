@@ -81,6 +81,8 @@ describe.skipIf(!hasChromium)('manager report in Chromium', () => {
       await page.locator('.appendix').evaluate((appendix) => appendix.remove());
       const withoutAppendix = pdfPageCount(await page.pdf({ preferCSSPageSize: true }));
       expect(withoutAppendix).toBeGreaterThanOrEqual(1);
+      // The case itself (decision, charts, comparison, calibration list, caveats) fits two A4 sheets.
+      expect(withoutAppendix).toBeLessThanOrEqual(2);
       expect(withAppendix).toBeGreaterThan(withoutAppendix);
       expect(problems).toEqual([]);
       await page.close();

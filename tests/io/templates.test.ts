@@ -4,7 +4,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { benchWorksheetsHtml, formatSetting } from '../../src/io/benchWorksheets.js';
-import { managerReportHtml } from '../../src/io/managerReport.js';
+import { managerReportHtml, runsOutsideLimits, splitDecision } from '../../src/io/managerReport.js';
 import { InputError } from '../../src/core/inputError.js';
 import { makeHostilePlanFixture, makePlanFixture, makeSchedule } from '../fixtures/report/planFixture.js';
 
@@ -154,7 +154,8 @@ describe('manager report', () => {
     const html = await managerReportHtml(plan, plan.schedule);
     expect(html).toContain('relative to an ideal orthogonal plan with the same number of runs, not to the proposed plan');
     expect(html).toContain('Relative to the proposed plan (= 1.00)');
-    expect(html).toContain('D-efficiency (relative to an ideal orthogonal plan of the same size)');
+    expect(html).toContain(`D-efficiency of the ${plan.metrics.N} fitting runs (relative to an ideal orthogonal plan of the same size)`);
+    expect(html).toContain('also counts the 2 centre repeats as fitting runs');
     expect(html).toContain('Efficiency relative to the best approximate plan on the same candidates');
     // One table row per comparator, the proposed one highlighted.
     expect(count(html, 'data-comparator="')).toBe(plan.comparison!.comparators.length);
@@ -168,12 +169,35 @@ describe('manager report', () => {
 
   it('lists parameters to estimate and to take from the literature, and the caveats', async () => {
     const html = await managerReportHtml(makePlanFixture());
-    expect(html).toMatch(/Estimate precisely \(1\)[\s\S]*Effective moisture diffusivity/);
-    expect(html).toMatch(/Literature or nominal value \(1\)[\s\S]*GAB energy constant C/);
+    expect(html).toMatch(/Estimate precisely from the lab data \(1\)[\s\S]*Effective moisture diffusivity/);
+    expect(html).toMatch(/Fix at a literature or nominal value \(1\)[\s\S]*GAB energy constant C/);
     expect(html).toContain('come from a process model and carry its assumptions');
     expect(html).toContain('common-practice starting points');
     expect(html).toContain('The plan assumes the model form');
     expect(html).toContain('Feed total solids is borderline');
+  });
+
+  it('shows the runs a plan cannot run as listed, read from the comparison verdict', async () => {
+    // The clause as src/core/compare/comparators.ts words it, singular and plural.
+    expect(runsOutsideLimits({ runs: 27, verdict: "Fits the model. 8 of its 27 runs break the study's constraints or equipment limits and cannot be run as listed." })).toBe('8 of 27');
+    expect(runsOutsideLimits({ runs: 27, verdict: "1 of its 27 runs breaks the study's constraints or equipment limits and cannot be run as listed." })).toBe('1 of 27');
+    expect(runsOutsideLimits({ runs: 19, verdict: 'Fits; six runs more.' })).toBe('none');
+    expect(runsOutsideLimits({ runs: null, verdict: 'Not built.' })).toBe('—');
+    const plan = makePlanFixture();
+    const bbd = plan.comparison!.comparators.find((row) => row.id === 'box-behnken')!;
+    bbd.verdict += " 3 of its 15 runs break the study's constraints or equipment limits and cannot be run as listed.";
+    const html = await managerReportHtml(plan, plan.schedule);
+    const row = html.slice(html.indexOf('data-comparator="box-behnken"'), html.indexOf('</tr>', html.indexOf('data-comparator="box-behnken"')));
+    expect(row).toContain('<td class="num">3 of 15</td>');
+    expect(html).toContain('such a plan cannot be run as listed');
+  });
+
+  it('prints the first two sentences of the decision in bold and the rest plainly', () => {
+    // "28.6 %" and "2σ" must not end a sentence; "Besides" starts the third.
+    const split = splitDecision(['The plan needs 25 runs: 10 fewer (28.6 %). It estimates all 13 terms. Besides, 8 of 35 runs break limits. A 2σ effect is found.']);
+    expect(split.headline).toBe('The plan needs 25 runs: 10 fewer (28.6 %). It estimates all 13 terms.');
+    expect(split.detail).toBe('Besides, 8 of 35 runs break limits. A 2σ effect is found.');
+    expect(splitDecision(['One sentence only.'])).toEqual({ headline: 'One sentence only.', detail: '' });
   });
 
   it('escapes a hostile factor name in the HTML and in the charts', async () => {

@@ -46,7 +46,7 @@ export async function indexChartSvg(tiers: TierResult): Promise<string> {
   const spec: Spec = chartSpec({
     width: PLOT_WIDTH,
     height,
-    padding: { left: 5, top: 34, right: 10, bottom: 5 },
+    padding: { left: 5, top: 5, right: 10, bottom: 5 },
     data: [
       { name: 'factors', values: rows },
       { name: 'intervals', source: 'factors', transform: [{ type: 'filter', expr: 'datum.low != null && datum.high != null' }] },

@@ -54,7 +54,7 @@ export async function predictionVarianceChartSvg(comparison: Comparison): Promis
 
   const spec: Spec = chartSpec({
     width: 330,
-    height: 190,
+    height: 140,
     padding: 5,
     data: [{ name: 'points', values: points }, { name: 'markers', values: markers }],
     scales: [
@@ -70,9 +70,16 @@ export async function predictionVarianceChartSvg(comparison: Comparison): Promis
       {
         orient: 'left',
         scale: 'y',
-        // Short: vega's headless text measure overestimates, and a long rotated title pads the chart.
-        title: `Variance, σ²${logarithmic ? ' (log scale)' : ''}`,
+        // Written level above the axis: vega's headless text measure overestimates, and a rotated
+        // title longer than the plot is tall would pad the chart with blank space.
+        title: `Prediction variance, σ²${logarithmic ? ' (log scale)' : ''}`,
+        titleAngle: 0,
+        titleAlign: 'left',
+        titleBaseline: 'bottom',
+        titleX: -30,
+        titleY: -8,
         grid: true,
+        ...(logarithmic ? { tickCount: 4 } : {}),
       },
     ],
     legends: [
@@ -80,6 +87,7 @@ export async function predictionVarianceChartSvg(comparison: Comparison): Promis
         stroke: 'stroke',
         strokeDash: 'dash',
         orient: 'bottom',
+        offset: 6,
         direction: 'vertical',
         title: 'Plan',
         symbolType: 'stroke',
