@@ -29,8 +29,8 @@ import { uniformInt } from 'pure-rand/distribution/uniformInt';
 import type { RandomGenerator } from 'pure-rand/types/RandomGenerator';
 import { expandInto, modelMatrix, type CompiledModel } from '../model/modelMatrix.js';
 import { logDetPerRun } from '../evaluate/designCriteria.js';
+import { invertSymmetric } from '../evaluate/cholesky.js';
 import type { CandidateRegion } from './designTypes.js';
-import { invertSymmetric } from './inverseUpdate.js';
 import { forEachFeasibleGridPoint, randomFeasiblePoint } from './gridSampling.js';
 
 export interface ContinuousBound {

@@ -16,10 +16,17 @@
  * X'X itself is nonsingular.
  */
 import { expandInto, type CompiledModel } from '../model/modelMatrix.js';
-import { dot, exchangeRatio, exchangeUpdate, invertSymmetric, multiplyInto } from './inverseUpdate.js';
+import { invertSymmetric } from '../evaluate/cholesky.js';
+import { dot, exchangeRatio, exchangeUpdate, multiplyInto } from './inverseUpdate.js';
 
 /** Relative ridge added to a singular X'X (times N). */
 const RIDGE = 1e-4;
+/**
+ * Relative pivot floor of the from-scratch inversions: stricter than the evaluation's guard,
+ * because the rank-one updates of a nearly singular X'X lose most of their digits, so such a
+ * design is searched with the ridge until exchanges have made it well conditioned.
+ */
+const SINGULAR_PIVOT = 1e-10;
 /** A trial must improve the criterion by more than this (relative) to be accepted. */
 const IMPROVEMENT = 1e-9;
 
@@ -95,12 +102,12 @@ export class ExchangeState {
       }
     }
     for (let a = 0; a < p; a++) for (let b = 0; b < a; b++) M[b * p + a] = M[a * p + b];
-    let logDet = invertSymmetric(M, p, this.inverse);
+    let logDet = invertSymmetric(M, p, this.inverse, SINGULAR_PIVOT);
     this.ridge = 0;
     if (logDet === Number.NEGATIVE_INFINITY) {
       this.ridge = RIDGE * Math.max(N, 1);
       for (let a = 0; a < p; a++) M[a * p + a] += this.ridge;
-      logDet = invertSymmetric(M, p, this.inverse);
+      logDet = invertSymmetric(M, p, this.inverse, SINGULAR_PIVOT);
     }
     this.logDet = logDet;
     this.trace = this.computeTrace();

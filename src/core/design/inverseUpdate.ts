@@ -9,61 +9,13 @@
  * Experiments", §3.1): det M_new / det M = (1 + d(y))(1 − d(x)) + d(x,y)², with
  * d(x) = f(x)'M⁻¹f(x), d(y) likewise and d(x,y) = f(x)'M⁻¹f(y). (Written out:
  * 1 + [d(y) − d(x)] − [d(x)d(y) − d(x,y)²]; the bracket is subtracted once, not twice.)
- * The from-scratch inverse is the Cholesky factorisation (Golub & Van Loan, 2013,
- * "Matrix Computations", 4th ed., §4.2).
+ * The from-scratch inverse these updates start from (and are reset to) is
+ * `invertSymmetric` in ../evaluate/cholesky.ts.
  *
  * Conventions: matrices are row-major p × p Float64Arrays, symmetric; the updates work in
  * place so the exchange searches allocate nothing per trial. Updates drift numerically;
  * callers re-invert from scratch periodically (after each full pass of a search).
  */
-
-/** A pivot below this fraction of the largest diagonal entry counts as singular. */
-const SINGULAR_PIVOT = 1e-10;
-
-/**
- * Writes M⁻¹ into `inverse` and returns ln det M, or returns -Infinity (leaving `inverse`
- * unspecified) when M is not numerically positive definite.
- */
-export function invertSymmetric(M: Float64Array, p: number, inverse: Float64Array): number {
-  const L = new Float64Array(p * p);
-  let largest = 0;
-  for (let i = 0; i < p; i++) largest = Math.max(largest, M[i * p + i]);
-  const floor = SINGULAR_PIVOT * Math.max(largest, Number.MIN_VALUE);
-  let logDet = 0;
-  for (let i = 0; i < p; i++) {
-    for (let j = 0; j <= i; j++) {
-      let sum = M[i * p + j];
-      for (let m = 0; m < j; m++) sum -= L[i * p + m] * L[j * p + m];
-      if (i === j) {
-        if (!(sum > floor)) return Number.NEGATIVE_INFINITY;
-        const root = Math.sqrt(sum);
-        L[i * p + i] = root;
-        logDet += 2 * Math.log(root);
-      } else {
-        L[i * p + j] = sum / L[j * p + j];
-      }
-    }
-  }
-  // L⁻¹ by forward substitution (in place of the upper triangle being unused), then M⁻¹ = L⁻ᵀL⁻¹.
-  const Linv = new Float64Array(p * p);
-  for (let i = 0; i < p; i++) {
-    Linv[i * p + i] = 1 / L[i * p + i];
-    for (let j = 0; j < i; j++) {
-      let sum = 0;
-      for (let m = j; m < i; m++) sum += L[i * p + m] * Linv[m * p + j];
-      Linv[i * p + j] = -sum / L[i * p + i];
-    }
-  }
-  for (let i = 0; i < p; i++) {
-    for (let j = 0; j <= i; j++) {
-      let sum = 0;
-      for (let m = i; m < p; m++) sum += Linv[m * p + i] * Linv[m * p + j];
-      inverse[i * p + j] = sum;
-      inverse[j * p + i] = sum;
-    }
-  }
-  return logDet;
-}
 
 /** out = A x for a p × p row-major A. */
 export function multiplyInto(A: Float64Array, p: number, x: ArrayLike<number>, out: Float64Array): void {

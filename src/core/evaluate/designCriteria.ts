@@ -11,7 +11,7 @@
  * A singular design gives logDetPerRun = −Infinity, dEfficiency = 0, iCriterion = Infinity.
  */
 import { informationMatrix, type CompiledModel } from '../model/modelMatrix.js';
-import { invertSymmetric } from '../design/inverseUpdate.js';
+import { invertSymmetric } from './cholesky.js';
 
 /** ln det(X'X / N) of the points under the model; −Infinity when X'X is singular. */
 export function logDetPerRun(model: CompiledModel, points: number[][]): number {

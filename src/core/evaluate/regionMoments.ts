@@ -5,9 +5,7 @@
  *
  * The region is the box spanned by each factor's lowest and highest coded level (normally
  * [−1, 1]), cut by the constraints in `isFeasible`.
- * - Uncut box: exact. Moments factorise over coordinates; for x uniform on [a, b],
- *   E[x^n] = (b^(n+1) − a^(n+1)) / ((n+1)(b − a)), which on [−1, 1] is 1/(n+1) for even n
- *   and 0 for odd n.
+ * - Uncut box: exact, in closed form (`boxMoments`, cubeMoments.ts).
  * - Cut box: a quasi-Monte Carlo average over Halton points (Halton, 1960, "On the efficiency
  *   of certain quasi-random sequences of points in evaluating multi-dimensional integrals",
  *   Numer. Math. 2) with a seeded Cranley–Patterson random shift (Cranley & Patterson, 1976,
@@ -23,6 +21,8 @@ import { uniformFloat64 } from 'pure-rand/distribution/uniformFloat64';
 import { expandInto, type CompiledModel } from '../model/modelMatrix.js';
 import type { CandidateRegion } from '../design/designTypes.js';
 import { InputError } from '../inputError.js';
+import { boxMoments } from './cubeMoments.js';
+import { haltonBases, haltonUnitPoint } from './haltonPoints.js';
 
 /** Feasible quasi-random points averaged for a cut region. */
 const QMC_POINTS = 8192;
@@ -44,15 +44,14 @@ export function regionMoments(model: CompiledModel, region: CandidateRegion, see
   const x = new Float64Array(k);
   const rng = xoroshiro128plus(seed);
   const shift = Array.from({ length: k }, () => uniformFloat64(rng));
-  const primes = firstPrimes(k);
+  const bases = haltonBases(k);
+  const u = new Float64Array(k);
   let accepted = 0;
   let tried = 0;
   for (let index = 1; accepted < QMC_POINTS && index <= QMC_ATTEMPTS; index++) {
     tried++;
-    for (let j = 0; j < k; j++) {
-      const u = (radicalInverse(index, primes[j]) + shift[j]) % 1;
-      x[j] = lower[j] + u * (upper[j] - lower[j]);
-    }
+    haltonUnitPoint(index, bases, u);
+    for (let j = 0; j < k; j++) x[j] = lower[j] + ((u[j] + shift[j]) % 1) * (upper[j] - lower[j]);
     if (!region.isFeasible(x)) continue;
     accepted++;
     expandInto(model, x, f);
@@ -103,50 +102,6 @@ export function regionMoments(model: CompiledModel, region: CandidateRegion, see
       `quasi-Monte Carlo average over ${accepted} feasible points of ${tried} Halton points in the box ${boxText} ` +
       `(random shift from seed ${seed}); the constraints cut about ${Math.round((100 * (tried - accepted)) / tried)} % of the box`,
   };
-}
-
-/** Exact moments of the uniform distribution on the box Π [lower_j, upper_j]. */
-function boxMoments(model: CompiledModel, lower: number[], upper: number[]): Float64Array {
-  const { p, exponents } = model;
-  const k = model.factorIds.length;
-  const W = new Float64Array(p * p);
-  for (let a = 0; a < p; a++) {
-    for (let b = a; b < p; b++) {
-      let moment = 1;
-      for (let j = 0; j < k && moment !== 0; j++) {
-        moment *= powerMoment(exponents[a * k + j] + exponents[b * k + j], lower[j], upper[j]);
-      }
-      W[a * p + b] = moment;
-      W[b * p + a] = moment;
-    }
-  }
-  return W;
-}
-
-function powerMoment(n: number, a: number, b: number): number {
-  if (n === 0) return 1;
-  if (b === a) return a ** n;
-  return (b ** (n + 1) - a ** (n + 1)) / ((n + 1) * (b - a));
-}
-
-function radicalInverse(index: number, base: number): number {
-  let result = 0;
-  let scale = 1 / base;
-  let rest = index;
-  while (rest > 0) {
-    result += (rest % base) * scale;
-    rest = Math.floor(rest / base);
-    scale /= base;
-  }
-  return result;
-}
-
-function firstPrimes(count: number): number[] {
-  const primes: number[] = [];
-  for (let candidate = 2; primes.length < count; candidate++) {
-    if (primes.every((prime) => candidate % prime !== 0)) primes.push(candidate);
-  }
-  return primes;
 }
 
 function describeBox(lower: number[], upper: number[]): string {

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { buildCandidateRegion } from '../../../src/core/design/candidateRegion.js';
 import { planLevels } from '../../../src/core/design/levels.js';
-import { InputError } from '../../../src/core/inputError.js';
+import { expectInputError } from '../../support/expectInputError.js';
 import type { Factor } from '../../../src/core/study.js';
 import { DEFAULT_DESIGN } from '../../../src/core/study.js';
 import { sampleConstraint, sampleFactors, sampleTiers } from './sprayDryerFixture.js';
@@ -9,16 +9,6 @@ import { sampleConstraint, sampleFactors, sampleTiers } from './sprayDryerFixtur
 function setup(patch: Record<string, Partial<Factor>> = {}) {
   const factors = sampleFactors().map((f) => ({ ...f, ...(patch[f.id] ?? {}) }));
   return { factors, levels: planLevels(factors, sampleTiers(), DEFAULT_DESIGN.levels) };
-}
-
-function inputError(fn: () => unknown): InputError {
-  try {
-    fn();
-  } catch (error) {
-    if (error instanceof InputError) return error;
-    throw error;
-  }
-  throw new Error('expected an InputError');
 }
 
 describe('candidate region of the spray-dryer sample', () => {
@@ -91,33 +81,33 @@ describe('constraint expressions', () => {
 
   it('lets fixed factors appear at their fixed setting', () => {
     expect(buildCandidateRegion(factors, levels, ['air_flow >= 380']).points!.length).toBe(144);
-    const e = inputError(() => buildCandidateRegion(factors, levels, ['air_flow >= 420']));
+    const e = expectInputError(() => buildCandidateRegion(factors, levels, ['air_flow >= 420']));
     expect(e.location.key).toBe('constraints');
     expect(e.message).toContain('exclude every one of the 144 grid points');
   });
 
   it('refuses model parameters and unknown names, with a suggestion', () => {
-    const model = inputError(() => buildCandidateRegion(factors, levels, [sampleConstraint, 'd_eff < 3']));
+    const model = expectInputError(() => buildCandidateRegion(factors, levels, [sampleConstraint, 'd_eff < 3']));
     expect(model.location.key).toBe('constraints[1]');
     expect(model.message).toContain('d_eff, a model parameter');
-    const typo = inputError(() => buildCandidateRegion(factors, levels, ['feed_rat <= 12']));
+    const typo = expectInputError(() => buildCandidateRegion(factors, levels, ['feed_rat <= 12']));
     expect(typo.location.key).toBe('constraints[0]');
     expect(typo.message).toContain('did you mean feed_rate?');
-    const fn = inputError(() => buildCandidateRegion(factors, levels, ['frobnicate(feed_rate) <= 12']));
+    const fn = expectInputError(() => buildCandidateRegion(factors, levels, ['frobnicate(feed_rate) <= 12']));
     expect(fn.message).toContain('unknown function frobnicate');
   });
 
   it('names the expression on a syntax error', () => {
-    const e = inputError(() => buildCandidateRegion(factors, levels, ['feed_rate <= ']));
+    const e = expectInputError(() => buildCandidateRegion(factors, levels, ['feed_rate <= ']));
     expect(e.location.key).toBe('constraints[0]');
     expect(e.message).toContain('cannot read constraint "feed_rate <= "');
   });
 
   it('refuses expressions that do not yield true or false, and assignments', () => {
-    const e = inputError(() => buildCandidateRegion(factors, levels, ['0.2 * inlet_temp - 18']));
+    const e = expectInputError(() => buildCandidateRegion(factors, levels, ['0.2 * inlet_temp - 18']));
     expect(e.location.key).toBe('constraints[0]');
     expect(e.message).toContain('does not yield true or false');
-    const a = inputError(() => buildCandidateRegion(factors, levels, ['feed_rate = 12']));
+    const a = expectInputError(() => buildCandidateRegion(factors, levels, ['feed_rate = 12']));
     expect(a.message).toContain('assigns a value');
   });
 });
@@ -134,7 +124,7 @@ describe('large grids', () => {
   });
 
   it('are spot-checked on a seeded sample and refused when nothing is feasible', () => {
-    const e = inputError(() => buildCandidateRegion(factors, levels, ['feed_rate > 20'], { enumerateLimit: 100 }));
+    const e = expectInputError(() => buildCandidateRegion(factors, levels, ['feed_rate > 20'], { enumerateLimit: 100 }));
     expect(e.location.key).toBe('constraints');
     expect(e.message).toContain('none of 4000 grid points');
   });

@@ -4,7 +4,7 @@ import { xoroshiro128plus } from 'pure-rand/generator/xoroshiro128plus';
 import { buildCandidateRegion } from '../../../src/core/design/candidateRegion.js';
 import { chooseHoldoutRuns, defaultHoldoutCount } from '../../../src/core/design/holdoutRuns.js';
 import { planLevels } from '../../../src/core/design/levels.js';
-import { InputError } from '../../../src/core/inputError.js';
+import { expectInputError } from '../../support/expectInputError.js';
 import type { Factor } from '../../../src/core/study.js';
 import { DEFAULT_DESIGN } from '../../../src/core/study.js';
 import { sampleConstraint, sampleFactors, sampleTiers } from './sprayDryerFixture.js';
@@ -21,16 +21,6 @@ function square(k: number, precision: number): { factors: Factor[]; tiers: Retur
 
 function nearestDistance(point: number[], others: number[][]): number {
   return Math.min(...others.map((o) => Math.hypot(...point.map((x, j) => x - o[j]))));
-}
-
-function inputError(fn: () => unknown): InputError {
-  try {
-    fn();
-  } catch (error) {
-    if (error instanceof InputError) return error;
-    throw error;
-  }
-  throw new Error('expected an InputError');
 }
 
 describe('defaultHoldoutCount', () => {
@@ -66,7 +56,7 @@ describe('chooseHoldoutRuns, worked by hand on a 3 × 3 grid', () => {
   });
 
   it('refuses more holdouts than free interior points', () => {
-    const e = inputError(() => chooseHoldoutRuns(region, grid, 9, 1));
+    const e = expectInputError(() => chooseHoldoutRuns(region, grid, 9, 1));
     expect(e.location.key).toBe('design.holdoutRuns');
     expect(e.message).toContain('only 8 interior points are free');
     expect(chooseHoldoutRuns(region, grid, 0, 1)).toEqual([]);
@@ -79,7 +69,7 @@ describe('chooseHoldoutRuns, worked by hand on a 3 × 3 grid', () => {
     const bare = planLevels(two.map((f) => ({ ...f, high: 1, levels: 2 })), twoTiers, DEFAULT_DESIGN.levels);
     const r = buildCandidateRegion(two.map((f) => ({ ...f, high: 1 })), bare, []);
     expect(chooseHoldoutRuns(r, r.points!, 2, 1, { atMost: true })).toEqual([]);
-    expect(inputError(() => chooseHoldoutRuns(r, r.points!, 2, 1)).message).toContain('no settable value strictly between');
+    expect(expectInputError(() => chooseHoldoutRuns(r, r.points!, 2, 1)).message).toContain('no settable value strictly between');
   });
 
   it('avoids constraint faces', () => {

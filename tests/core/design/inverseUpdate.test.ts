@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import reference from '../../reference/design/design.json' with { type: 'json' };
 import { informationMatrix, modelMatrix } from '../../../src/core/model/modelMatrix.js';
-import { exchangeRatio, exchangeUpdate, invertSymmetric, rankOneUpdate } from '../../../src/core/design/inverseUpdate.js';
+import { exchangeRatio, exchangeUpdate, rankOneUpdate } from '../../../src/core/design/inverseUpdate.js';
+import { invertSymmetric } from '../../../src/core/evaluate/cholesky.js';
 import { modelFromExponents } from './gridRegions.js';
 
 // Expected values: numpy.linalg inverses and determinants of the re-built X'X

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { planLevels, roundToPrecision, toCoded, toEngineering } from '../../../src/core/design/levels.js';
-import { InputError } from '../../../src/core/inputError.js';
+import { expectInputError } from '../../support/expectInputError.js';
 import type { Factor } from '../../../src/core/study.js';
 import { DEFAULT_DESIGN } from '../../../src/core/study.js';
 import type { TierResult } from '../../../src/core/sensitivity/tierTypes.js';
@@ -10,16 +10,6 @@ const defaults = DEFAULT_DESIGN.levels;
 
 function withFactor(id: string, patch: Partial<Factor>): Factor[] {
   return sampleFactors().map((f) => (f.id === id ? { ...f, ...patch } : f));
-}
-
-function inputError(fn: () => unknown): InputError {
-  try {
-    fn();
-  } catch (error) {
-    if (error instanceof InputError) return error;
-    throw error;
-  }
-  throw new Error('expected an InputError');
 }
 
 describe('coding', () => {
@@ -156,7 +146,7 @@ describe('planLevels rules', () => {
 
 describe('planLevels errors', () => {
   it('refuses a precision that leaves fewer settings than levels', () => {
-    const e = inputError(() => planLevels(withFactor('inlet_temp', { precision: 20 }), sampleTiers(), defaults));
+    const e = expectInputError(() => planLevels(withFactor('inlet_temp', { precision: 20 }), sampleTiers(), defaults));
     expect(e.location.key).toBe('factors[0].precision');
     expect(e.message).toContain('only 3 distinct settings');
   });
@@ -164,7 +154,7 @@ describe('planLevels errors', () => {
   it('refuses a precision whose rounding merges two levels', () => {
     // 0–1.9 in 0.5 steps has 4 settings, but the levels 0, 0.63, 1.27, 1.9 round to 0, 0.5, 1.5 and 2 → 1.5
     // (kept inside the range): the top two merge.
-    const e = inputError(() =>
+    const e = expectInputError(() =>
       planLevels(withFactor('feed_rate', { low: 0, high: 1.9, nominal: 1, precision: 0.5, levels: 4, limits: undefined }), sampleTiers(), defaults),
     );
     expect(e.message).toContain('merges levels 1.5 and 1.5');
@@ -172,47 +162,47 @@ describe('planLevels errors', () => {
   });
 
   it('refuses explicit levels that are not settable or are listed twice', () => {
-    expect(inputError(() => planLevels(withFactor('inlet_temp', { levels: [160, 170.5, 200] }), sampleTiers(), defaults)).location.key).toBe(
+    expect(expectInputError(() => planLevels(withFactor('inlet_temp', { levels: [160, 170.5, 200] }), sampleTiers(), defaults)).location.key).toBe(
       'factors[0].levels',
     );
-    const twice = inputError(() => planLevels(withFactor('inlet_temp', { levels: [160, 180, 180, 200] }), sampleTiers(), defaults));
+    const twice = expectInputError(() => planLevels(withFactor('inlet_temp', { levels: [160, 180, 180, 200] }), sampleTiers(), defaults));
     expect(twice.message).toContain('listed twice');
-    expect(inputError(() => planLevels(withFactor('inlet_temp', { levels: [180] }), sampleTiers(), defaults)).location.key).toBe(
+    expect(expectInputError(() => planLevels(withFactor('inlet_temp', { levels: [180] }), sampleTiers(), defaults)).location.key).toBe(
       'factors[0].levels',
     );
-    expect(inputError(() => planLevels(withFactor('inlet_temp', { levels: 1 }), sampleTiers(), defaults)).location.key).toBe(
+    expect(expectInputError(() => planLevels(withFactor('inlet_temp', { levels: 1 }), sampleTiers(), defaults)).location.key).toBe(
       'factors[0].levels',
     );
   });
 
   it('refuses explicit levels outside the studied range', () => {
-    const e = inputError(() => planLevels(withFactor('inlet_temp', { levels: [150, 180, 200] }), sampleTiers(), defaults));
+    const e = expectInputError(() => planLevels(withFactor('inlet_temp', { levels: [150, 180, 200] }), sampleTiers(), defaults));
     expect(e.message).toContain('outside the studied range');
   });
 
   it('refuses a level outside the equipment limits', () => {
-    const e = inputError(() =>
+    const e = expectInputError(() =>
       planLevels(withFactor('inlet_temp', { limits: { low: 165, high: 220 } }), sampleTiers(), defaults),
     );
     expect(e.location.key).toBe('factors[0].levels');
     expect(e.message).toContain('refused: outside the rated range');
-    const fixed = inputError(() =>
+    const fixed = expectInputError(() =>
       planLevels(withFactor('air_flow', { limits: { low: 300, high: 380 } }), sampleTiers(), defaults),
     );
     expect(fixed.message).toContain('refused: outside the rated range');
   });
 
   it('refuses a bad default level count and an empty range', () => {
-    expect(inputError(() => planLevels(sampleFactors(), sampleTiers(), { critical: 1, moderate: 3 })).location.key).toBe(
+    expect(expectInputError(() => planLevels(sampleFactors(), sampleTiers(), { critical: 1, moderate: 3 })).location.key).toBe(
       'design.levels.critical',
     );
-    expect(inputError(() => planLevels(withFactor('feed_rate', { high: 8 }), sampleTiers(), defaults)).location.key).toBe(
+    expect(expectInputError(() => planLevels(withFactor('feed_rate', { high: 8 }), sampleTiers(), defaults)).location.key).toBe(
       'factors[2].high',
     );
   });
 
   it('refuses an operating factor the tiers do not know', () => {
     const tiers: TierResult = { ...sampleTiers(), factors: sampleTiers().factors.filter((f) => f.id !== 'feed_rate') };
-    expect(inputError(() => planLevels(sampleFactors(), tiers, defaults)).location.key).toBe('factors[2]');
+    expect(expectInputError(() => planLevels(sampleFactors(), tiers, defaults)).location.key).toBe('factors[2]');
   });
 });

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { planLevels } from '../../../src/core/design/levels.js';
 import { deriveModel } from '../../../src/core/design/modelFromTiers.js';
 import { termLabel } from '../../../src/core/model/modelTerm.js';
-import { InputError } from '../../../src/core/inputError.js';
+import { expectInputError } from '../../support/expectInputError.js';
 import type { Factor } from '../../../src/core/study.js';
 import { DEFAULT_DESIGN } from '../../../src/core/study.js';
 import { samplePolicy, sampleFactors, sampleTiers } from './sprayDryerFixture.js';
@@ -16,16 +16,6 @@ function sampleLevels(patch: Record<string, Partial<Factor>> = {}) {
 
 function labels(terms: { powers: Record<string, number> }[]): string[] {
   return terms.map((t) => termLabel(t, ids));
-}
-
-function inputError(fn: () => unknown): InputError {
-  try {
-    fn();
-  } catch (error) {
-    if (error instanceof InputError) return error;
-    throw error;
-  }
-  throw new Error('expected an InputError');
 }
 
 describe('deriveModel from the tiers (spray-dryer sample)', () => {
@@ -178,7 +168,7 @@ describe('deriveModel explicit lists', () => {
       [[], 'design.model', 'empty'],
     ];
     for (const [list, key, text] of cases) {
-      const e = inputError(() => deriveModel(sampleLevels(), sampleTiers(), samplePolicy, list));
+      const e = expectInputError(() => deriveModel(sampleLevels(), sampleTiers(), samplePolicy, list));
       expect(e.location.key, list.join(',')).toBe(key);
       expect(e.message, list.join(',')).toContain(text);
     }

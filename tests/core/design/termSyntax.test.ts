@@ -1,19 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import { parseTerm } from '../../../src/core/design/termSyntax.js';
 import { termLabel } from '../../../src/core/model/modelTerm.js';
-import { InputError } from '../../../src/core/inputError.js';
+import { expectInputError } from '../../support/expectInputError.js';
 
 const ids = ['inlet_temp', 'feed_solids', 'feed_rate', 'atomiser_speed', 'air_flow'];
-
-function inputError(fn: () => unknown): InputError {
-  try {
-    fn();
-  } catch (error) {
-    if (error instanceof InputError) return error;
-    throw error;
-  }
-  throw new Error('expected an InputError');
-}
 
 describe('parseTerm', () => {
   it('reads main effects, powers and products', () => {
@@ -38,17 +28,17 @@ describe('parseTerm', () => {
   });
 
   it('names an unknown factor with a did-you-mean suggestion and the key', () => {
-    const e = inputError(() => parseTerm('inlet_tmp*feed_rate', ids, 'design.model[3]'));
+    const e = expectInputError(() => parseTerm('inlet_tmp*feed_rate', ids, 'design.model[3]'));
     expect(e.location.key).toBe('design.model[3]');
     expect(e.message).toContain('unknown factor "inlet_tmp"');
     expect(e.message).toContain('did you mean inlet_temp?');
-    const far = inputError(() => parseTerm('viscosity', ids, 'design.model[0]'));
+    const far = expectInputError(() => parseTerm('viscosity', ids, 'design.model[0]'));
     expect(far.message).toContain('known factors: inlet_temp, feed_solids');
   });
 
   it('reports syntax errors with the key', () => {
     for (const bad of ['', 'inlet_temp**2', 'inlet_temp^', 'inlet_temp^0', 'inlet_temp^1.5', 'log(feed_rate)', 'inlet_temp+feed_rate', '*feed_rate', 'inlet_temp^-1']) {
-      const e = inputError(() => parseTerm(bad, ids, 'design.model[1]'));
+      const e = expectInputError(() => parseTerm(bad, ids, 'design.model[1]'));
       expect(e.location.key).toBe('design.model[1]');
     }
   });
