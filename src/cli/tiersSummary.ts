@@ -21,7 +21,7 @@ const AGGREGATE_WORDS: Record<Study['policy']['aggregate'], string> = {
   weighted: 'response-weighted mean',
 };
 
-export function tiersSummary(study: Pick<Study, 'title' | 'responses'>, result: TierResult, paint: Painter): string {
+export function tiersSummary(study: Pick<Study, 'title' | 'responses' | 'interactions'>, result: TierResult, paint: Painter): string {
   const { policy } = result;
   const out: string[] = [];
   const decidedOnUpper = policy.confidence === 'upper';
@@ -88,7 +88,11 @@ export function tiersSummary(study: Pick<Study, 'title' | 'responses'>, result: 
 
   out.push('', paint.bold(`Interaction pairs (largest second-order index over the responses ≥ ${cutoff(policy.interaction)})`));
   if (result.interactionPairs.length === 0) {
-    out.push('None reach the threshold (or the study has no second-order table).');
+    out.push(
+      study.interactions.length === 0
+        ? 'The study gives no second-order table (key `interactions`), so no pairs can be listed.'
+        : `No pair reaches ${cutoff(policy.interaction)} for any response.`,
+    );
   } else {
     out.push(
       renderTable(

@@ -303,7 +303,9 @@ function readNumber(table: TableRows, row: TableRow, column: number): number {
   }
   if (/%$/.test(text)) throw new InputError(`"${text}" is a percentage; give indices as fractions (0.25, not 25%)`, where);
   if (/^[+-]?\d*,\d+$/.test(text)) {
-    throw new InputError(`"${text}" has a decimal comma; use "." decimals, or separate the columns with semicolons`, where);
+    // Semicolons only help a CSV; in a workbook or JSON the cell itself must change.
+    const advice = table.format === 'csv' ? 'use "." decimals, or separate the columns with semicolons' : 'enter it as a number with "." decimals';
+    throw new InputError(`"${text}" has a decimal comma; ${advice}`, where);
   }
   if (!PLAIN_NUMBER.test(text)) throw new InputError(`must be a number, not "${text}"`, where);
   return Number(text);

@@ -130,11 +130,14 @@ describe('tiersSummary', () => {
     expect(text).toContain('mean over the responses (1 response);');
     expect(text).toMatch(/^p\s+Factor p\s+0\.0400\s+negligible \*\s+take a literature or nominal value$/m);
     expect(text).toMatch(/^\* borderline:/m);
+    expect(text).toContain('The study gives no second-order table (key `interactions`), so no pairs can be listed.');
   });
 
   it('names the weights when the aggregate is weighted', () => {
-    const text = tiersSummary(study, decideTiers({ ...study, policy: policy({ aggregate: 'weighted' }) }), painter(false));
+    const withPair = { ...study, interactions: [{ factorA: 'a', factorB: 'p', response: 'y', index: 0.02 }] };
+    const text = tiersSummary(withPair, decideTiers({ ...withPair, policy: policy({ aggregate: 'weighted' }) }), painter(false));
     expect(text).toContain('response-weighted mean (weights y 3);');
+    expect(text).toContain('No pair reaches 0.05 for any response.');
   });
 });
 

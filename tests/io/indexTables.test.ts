@@ -101,6 +101,20 @@ describe('formats give the same rows', () => {
       () => readIndexTable(join(folder, 'indices.xlsx'), 'indices.xlsx', STUDY_IDS),
       'indices.xlsx, row 3, column first: must be a number, not "n/a"',
     );
+    // Numeric text typed under a decimal-comma locale: the advice fits a workbook, not a CSV.
+    sheet.getCell('C3').value = '0,10';
+    sheet.addRow(['ph', 'titre', { formula: '1/0', result: { error: '#DIV/0!' } }, 0.31]);
+    await workbook.xlsx.writeFile(join(folder, 'indices.xlsx'));
+    await expectInputError(
+      () => readIndexTable(join(folder, 'indices.xlsx'), 'indices.xlsx', STUDY_IDS),
+      'indices.xlsx, row 3, column first: "0,10" has a decimal comma; enter it as a number with "." decimals',
+    );
+    sheet.getCell('C3').value = 0.1;
+    await workbook.xlsx.writeFile(join(folder, 'indices.xlsx'));
+    await expectInputError(
+      () => readIndexTable(join(folder, 'indices.xlsx'), 'indices.xlsx', STUDY_IDS),
+      'indices.xlsx, row 4, column first: "#DIV/0!" is not a usable index value (NaN, infinite or a spreadsheet error); re-estimate or fix it',
+    );
   });
 
   it('JSON as an array of rows and as {rows: [...]}', async () => {
