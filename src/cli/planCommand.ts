@@ -46,11 +46,16 @@ export function registerPlan(program: Command): void {
           buildPlan(study, {
             toolVersion: toolVersion(),
             onProgress: showProgress ? (message) => process.stderr.write(`… ${message}\n`) : undefined,
+            runsSetBy: options.runs !== undefined && options.runs !== 'auto' ? 'the --runs option' : undefined,
           }),
         );
       } catch (error) {
+        if (!(error instanceof InputError)) throw error;
+        // A value given on the command line is blamed on its option, not on the study file.
+        const option = overridingOption(error.location.key, options);
+        if (option) throw new InputError(`${option} ${options[optionField[option]]}: ${error.message}`);
         // Core knows keys, not files: name the study file the key lives in.
-        throw error instanceof InputError ? error.inFile(studyPath) : error;
+        throw error.inFile(studyPath);
       }
 
       let written: string[] = [];
@@ -90,6 +95,16 @@ async function writePlanFiles(dir: string, plan: PlanDocument, force: boolean): 
     { name: 'report.html', content: await managerReportHtml(plan, schedule) },
   ];
   return writeOutputSet(resolve(dir), files, { planId: plan.planId, force });
+}
+
+const optionField = { '--seed': 'seed', '--runs': 'runs', '--criterion': 'criterion', '--starts': 'starts' } as const;
+
+/** The command-line option that set the study key an error names, if one did. */
+function overridingOption(key: string | undefined, options: PlanOptions): keyof typeof optionField | null {
+  for (const option of Object.keys(optionField) as (keyof typeof optionField)[]) {
+    if (key === `design.${optionField[option]}` && options[optionField[option]] !== undefined) return option;
+  }
+  return null;
 }
 
 function applyOverrides(study: Study, options: PlanOptions): Study {

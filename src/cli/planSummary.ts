@@ -18,7 +18,7 @@ export function planSummary(plan: PlanDocument): string {
       [{ header: 'Factor' }, { header: 'Tier' }, { header: 'Total index', align: 'right' }, { header: 'Settings' }, { header: 'Unit' }],
       plan.levels.map((level) => {
         const tier = tierOf.get(level.id);
-        const settings = level.varied ? level.values.map((value) => formatNumber(value)).join(', ') : `fixed at ${formatNumber(level.fixedAt ?? NaN)}`;
+        const settings = level.varied ? level.values.map(settingText).join(', ') : `fixed at ${settingText(level.fixedAt ?? NaN)}`;
         return [level.id, `${level.tier}${tier?.borderline ? ' (borderline)' : ''}`, tier ? formatNumber(tier.decidedOn, 3) : null, settings, level.unit];
       }),
       { title: 'Operating factors' },
@@ -38,7 +38,10 @@ export function planSummary(plan: PlanDocument): string {
   const count = (purpose: string) => plan.runs.filter((run) => run.purpose === purpose).length;
   const centre = count('centre');
   const holdout = count('holdout');
-  lines.push(`Runs: ${metrics.N} fitting + ${centre} centre replicates + ${holdout} holdout = ${plan.runs.length} (${metrics.runsNote})`);
+  lines.push(
+    `Runs: ${metrics.N} fitting + ${centre} centre replicates + ${holdout} holdout (validation only, not used for fitting) = ${plan.runs.length} ` +
+      `(${metrics.runsNote})`,
+  );
   lines.push(`D-efficiency, textbook form 100·|X'X|^(1/p)/N in coded units: ${formatNumber(metrics.dEfficiency, 3)} %`);
   lines.push(
     metrics.boundEfficiency === null
@@ -59,4 +62,12 @@ export function planSummary(plan: PlanDocument): string {
     for (const warning of plan.warnings) lines.push(`  - ${warning}`);
   }
   return `${lines.join('\n')}\n`;
+}
+
+/**
+ * A setting as the operator will dial it: levels are already rounded to the factor's
+ * precision, so print them in full (six significant figures, no padding zeros: 9.5, not 9.50).
+ */
+function settingText(value: number): string {
+  return String(Number(value.toPrecision(6)));
 }

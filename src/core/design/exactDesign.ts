@@ -74,6 +74,7 @@ export function findExactDesign(request: ExactDesignRequest): ExactDesignResult 
   if (!Number.isInteger(starts) || starts < 1) {
     throw new InputError(`the number of search starts must be a whole number of at least 1, not ${starts}`, { key: 'design.starts' });
   }
+  checkSupport(model, region);
   const candidates = fedorovCandidates(model, region, runs);
   // Computed on first use, so an empty region is reported as such rather than as a moment failure.
   let moments = request.moments ?? null;
@@ -148,6 +149,65 @@ function improve(state: ExchangeState, model: CompiledModel, region: CandidateRe
     if (moved === 0 && ridgeBefore === state.ridge) return pass;
   }
   return MAX_PASSES;
+}
+
+/**
+ * Refuses, before any search, an enumerated region that certainly cannot support the model,
+ * naming the cause: fewer distinct feasible points than parameters (X has at most that rank),
+ * or a factor with m distinct feasible settings and a term x^d·g, d ≥ m, whose lower
+ * companions x^i·g, i < m, are all in the model — on m values x^d is a polynomial of degree
+ * m − 1 in x (Lagrange interpolation), so that column is a combination of the companions'.
+ * Other deficiencies are left to the search, which reports them without a named cause.
+ */
+function checkSupport(model: CompiledModel, region: CandidateRegion): void {
+  const points = region.points;
+  if (points === null) return;
+  const { p, exponents } = model;
+  const k = model.factorIds.length;
+  if (points.length < p) {
+    throw new InputError(
+      `the candidate region cannot support the model: it has only ${points.length} feasible grid point${points.length === 1 ? '' : 's'}, ` +
+        `fewer than the ${p} model parameters; ` +
+        'loosen the constraints, add levels or simplify the model',
+      { key: points.length < region.gridSize ? 'constraints' : 'design.model' },
+    );
+  }
+  const termKeys = new Set<string>();
+  for (let t = 0; t < p; t++) termKeys.add(exponents.subarray(t * k, (t + 1) * k).join(','));
+  for (let j = 0; j < k; j++) {
+    const settings = new Set(points.map((point) => point[j]));
+    const m = settings.size;
+    for (let t = 0; t < p; t++) {
+      const power = exponents[t * k + j];
+      if (power < m) continue;
+      const companion = Array.from(exponents.subarray(t * k, (t + 1) * k));
+      let allPresent = true;
+      for (let i = 0; i < m && allPresent; i++) {
+        companion[j] = i;
+        allPresent = termKeys.has(companion.join(','));
+      }
+      if (!allPresent) continue;
+      const id = model.factorIds[j];
+      const cut = m < region.levels[j].length;
+      throw new InputError(
+        `the candidate region cannot support the model: ${id} has only ${m} feasible setting${m === 1 ? '' : 's'}` +
+          `${cut ? ` of its ${region.levels[j].length} levels` : ''}, too few for the term ${termText(model, t)} ` +
+          `(power ${power} needs ${power + 1} distinct settings); ` +
+          (cut ? 'loosen the constraints that exclude the other levels or drop the term' : 'add levels or drop the term'),
+        { key: cut ? 'constraints' : 'design.model' },
+      );
+    }
+  }
+}
+
+function termText(model: CompiledModel, t: number): string {
+  const k = model.factorIds.length;
+  const parts: string[] = [];
+  for (let j = 0; j < k; j++) {
+    const power = model.exponents[t * k + j];
+    if (power > 0) parts.push(power === 1 ? model.factorIds[j] : `${model.factorIds[j]}^${power}`);
+  }
+  return parts.length === 0 ? '1' : parts.join('*');
 }
 
 function fedorovCandidates(model: CompiledModel, region: CandidateRegion, runs: number): CandidateSet | null {

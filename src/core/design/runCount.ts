@@ -7,15 +7,23 @@
  * "Design and Analysis of Experiments", 2017, 9th ed., §11.2). At least 3 extra degrees of
  * freedom so the test is not powerless (common practice), growing with p (a quarter of the
  * parameter count) so larger models keep a comparable margin for checking the fit.
+ * Without at least two centre replicates there is no pure error, and the note says that the
+ * extra runs then only estimate the residual error.
  */
 
-/** The default fitting-run count for a model with p parameters (intercept included). */
-export function defaultRunCount(p: number): { runs: number; note: string } {
+/**
+ * The default fitting-run count for a model with p parameters (intercept included), with a
+ * note that explains it; `centreRuns` (default 3) decides whether a lack-of-fit test exists.
+ */
+export function defaultRunCount(p: number, centreRuns = 3): { runs: number; note: string } {
   const allowance = Math.max(3, Math.ceil(p / 4));
+  const start = `${p} model parameters plus ${allowance} extra runs (the larger of 3 and a quarter of p) leave ${allowance} degrees of freedom`;
   return {
     runs: p + allowance,
     note:
-      `${p} model parameters plus ${allowance} extra runs (the larger of 3 and a quarter of p) ` +
-      `leave ${allowance} degrees of freedom to test lack of fit against pure error from the centre replicates`,
+      centreRuns >= 2
+        ? `${start} to test lack of fit against pure error from the ${centreRuns} centre replicates`
+        : `${start} for the residual error; with ${centreRuns === 0 ? 'no' : 'one'} centre replicate${centreRuns === 0 ? 's' : ''} ` +
+          'there is no pure error, so lack of fit cannot be tested',
   };
 }

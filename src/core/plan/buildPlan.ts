@@ -36,6 +36,8 @@ export interface BuildPlanOptions {
   onSearchProgress?: (done: number, total: number) => void;
   /** Skip the comparison (it is the slowest stage after the search). */
   skipComparison?: boolean;
+  /** Where a fixed run count came from, for the note (default `the study (design.runs)`). */
+  runsSetBy?: string;
 }
 
 export function buildPlan(study: Study, options: BuildPlanOptions): PlanDocument {
@@ -64,7 +66,10 @@ export function buildPlan(study: Study, options: BuildPlanOptions): PlanDocument
 
   const region = buildCandidateRegion(study.factors, levels, study.constraints, { seed: design.seed });
 
-  const runCount = design.runs === 'auto' ? defaultRunCount(model.p) : { runs: design.runs, note: 'set in the study (design.runs)' };
+  const runCount =
+    design.runs === 'auto'
+      ? defaultRunCount(model.p, design.centreRuns)
+      : { runs: design.runs, note: `set by ${options.runsSetBy ?? 'the study (design.runs)'}` };
   if (runCount.runs < model.p) {
     throw new InputError(
       `${runCount.runs} fitting runs cannot estimate ${model.p} model parameters; use at least ${model.p} or a smaller model`,

@@ -96,9 +96,32 @@ describe('exact design search', () => {
     expect(call).toThrow(/no feasible setting/);
   });
 
-  it('refuses a region that cannot support the model (squares on two levels)', () => {
+  // Rank facts behind the named causes: X has at most as many independent rows as distinct points,
+  // and on m distinct values x^d (d ≥ m) is a polynomial of degree m − 1 in x (Lagrange
+  // interpolation), so x^d is a combination of 1, x, …, x^(m−1) — common practice, from memory.
+  it('refuses a region with fewer feasible points than parameters, naming the count', () => {
     const model = modelFromExponents(quadraticExponents(2));
     const call = () => findExactDesign({ model, region: gridRegion([TWO_LEVELS, TWO_LEVELS]), runs: 8, criterion: 'D', seed: 1, starts: 3 });
-    expect(call).toThrow(/cannot support the model/);
+    expect(call).toThrow(/cannot support the model: it has only 4 feasible grid points, fewer than the 6 model parameters/);
+  });
+
+  it('names the factor whose feasible settings are too few for a power, key constraints when they cut it', () => {
+    // x1 ≤ 0 leaves x1 two of its three levels; x1² then equals a combination of 1 and x1.
+    const model = modelFromExponents(quadraticExponents(2));
+    const region = gridRegion([THREE_LEVELS, THREE_LEVELS], (x) => x[0] <= 0);
+    const call = () => findExactDesign({ model, region, runs: 8, criterion: 'D', seed: 1, starts: 3 });
+    expect(call).toThrow(/x1 has only 2 feasible settings of its 3 levels, too few for the term x1\^2/);
+    try {
+      call();
+    } catch (error) {
+      expect((error as InputError).location.key).toBe('constraints');
+    }
+  });
+
+  it('refuses, after searching, a grid too large to enumerate that cannot support the model', () => {
+    const model = modelFromExponents(quadraticExponents(2));
+    const region = gridRegion([TWO_LEVELS, TWO_LEVELS], () => true, false);
+    const call = () => findExactDesign({ model, region, runs: 8, criterion: 'D', seed: 1, starts: 3 });
+    expect(call).toThrow(/cannot support the model: every one of 3 searches/);
   });
 });

@@ -20,4 +20,12 @@ describe('default run count', () => {
     expect(note).toMatch(/21 model parameters plus 6 extra runs/);
     expect(note).toMatch(/lack of fit/);
   });
+
+  it('says when there is no pure error to test lack of fit against', () => {
+    // Pure error needs at least two replicates of one point (Montgomery, 9th ed., §11.2).
+    expect(defaultRunCount(10, 3).note).toMatch(/pure error from the 3 centre replicates/);
+    expect(defaultRunCount(10, 0).note).toMatch(/no centre replicates there is no pure error/);
+    expect(defaultRunCount(10, 1).note).toMatch(/one centre replicate there is no pure error/);
+    expect(defaultRunCount(10, 0).runs).toBe(defaultRunCount(10, 3).runs);
+  });
 });
