@@ -6,7 +6,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser } from 'playwright-core';
 import { benchWorksheetsHtml } from '../../src/io/benchWorksheets.js';
 import type { PlanDocument } from '../../src/core/plan/planDocument.js';
-import { makeHostilePlanFixture, makePlanFixture, makeSchedule } from '../fixtures/report/planFixture.js';
+import { makeHostilePlanFixture, makePlanFixture, makeSchedule } from '../fixtures/plan/sprayDryerPlan.js';
 import { announceAvailability, hasChromium, launchChromium, pdfPageCount } from './chromiumBrowser.js';
 
 announceAvailability();

@@ -5,7 +5,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import { managerReportHtml } from '../../src/io/managerReport.js';
-import { HOSTILE_NAME, makeHostilePlanFixture, makePlanFixture } from '../fixtures/report/planFixture.js';
+import { HOSTILE_NAME, makeHostilePlanFixture, makePlanFixture } from '../fixtures/plan/sprayDryerPlan.js';
 import { announceAvailability, hasChromium, launchChromium, pdfPageCount } from './chromiumBrowser.js';
 
 announceAvailability();

@@ -7,7 +7,7 @@ import { indexChartSvg } from '../../src/io/charts/indexChart.js';
 import { sweepSlice, thresholdSweepChartSvg } from '../../src/io/charts/thresholdSweepChart.js';
 import { predictionVarianceChartSvg } from '../../src/io/charts/predictionVarianceChart.js';
 import { COMPARATOR_STYLE, OKABE_ITO, THRESHOLD_STYLE, TIER_STYLE } from '../../src/io/charts/chartPalette.js';
-import { HOSTILE_NAME, makeHostilePlanFixture, makePlanFixture } from '../fixtures/report/planFixture.js';
+import { HOSTILE_NAME, makeHostilePlanFixture, makePlanFixture } from '../fixtures/plan/sprayDryerPlan.js';
 
 /** The `<g class="... name">…</g>` group vega writes for the mark called `name`. */
 function markGroup(svg: string, name: string): string {

@@ -6,7 +6,7 @@ import { describe, expect, it } from 'vitest';
 import { benchWorksheetsHtml, formatSetting } from '../../src/io/benchWorksheets.js';
 import { managerReportHtml, runsOutsideLimits, splitDecision } from '../../src/io/managerReport.js';
 import { InputError } from '../../src/core/inputError.js';
-import { makeHostilePlanFixture, makePlanFixture, makeSchedule } from '../fixtures/report/planFixture.js';
+import { makeHostilePlanFixture, makePlanFixture, makeSchedule } from '../fixtures/plan/sprayDryerPlan.js';
 
 const CAUTION = 'Check every setting on this sheet against the equipment’s rated limits and the site’s safety procedures before starting.';
 const ESCAPED_HOSTILE = '&lt;script&gt;alert(1)&lt;/script&gt; &amp; &quot;quoted&quot; &#x27;x&#x27;';
