@@ -103,8 +103,12 @@ function addRunSheet(workbook: ExcelJS.Workbook, plan: PlanDocument, schedule: S
     }
   });
   widths.forEach((w, i) => (sheet.getColumn(i + 1).width = w));
-  // Merged note cells span columns B..last; a rough characters-per-line figure sizes their rows.
-  const charsPerLine = Math.max(40, widths.slice(1).reduce((a, b) => a + b, 0) * 1.1);
+  // Merged note cells span columns B..last, and spreadsheets do not grow a merged row to fit its
+  // text, so the row height is set here. A column width unit is one '0' of the default font;
+  // prose runs close to one character per unit and bold text wider, so 0.9 characters per unit
+  // leaves a spare line rather than clipping the end of the caution (common practice, measured
+  // by eye in a spreadsheet program, not from a specification).
+  const charsPerLine = Math.max(40, widths.slice(1).reduce((a, b) => a + b, 0) * 0.9);
 
   let row = 1;
   const title = sheet.getRow(row++);

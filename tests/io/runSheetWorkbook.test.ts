@@ -52,6 +52,19 @@ describe('run sheet workbook', () => {
     expect(other['xl/worksheets/sheet1.xml']).not.toBe(first['xl/worksheets/sheet1.xml']);
   });
 
+  it('makes every merged note row tall enough for its text, the caution included', async () => {
+    const { workbook } = await readBack();
+    const sheet = workbook.getWorksheet(SHEET_NAMES.runSheet)!;
+    const merged = sheet.columns.slice(1).reduce((sum, column) => sum + (column.width ?? 0), 0);
+    for (const label of ['Run order', 'Hard to change', 'Caution', 'Fill in']) {
+      const row = sheet.getRow(rowWith(sheet, label));
+      const text = String(row.getCell(2).value);
+      const lines = (row.height ?? 15) / 15;
+      // At most 0.9 characters per column-width unit, so bold text is not cut off (see the module).
+      expect(lines * 0.9 * merged, label).toBeGreaterThanOrEqual(text.length);
+    }
+  });
+
   it('writes the header block with plan id, seed, caution and the fixed factors', async () => {
     const { workbook, plan, schedule } = await readBack();
     const sheet = workbook.getWorksheet(SHEET_NAMES.runSheet)!;
