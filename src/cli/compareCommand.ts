@@ -153,11 +153,12 @@ export function comparisonText(comparison: Comparison, plan: PlanDocument): stri
   if (proposed?.terms && proposed.terms.length > 0) {
     const termTable = renderTable(
       [{ header: 'Term' }, { header: 'Std error', unit: 'σ', align: 'right' }, { header: 'VIF', align: 'right' }, { header: 'Power', unit: '%', align: 'right' }],
-      proposed.terms.map((term) => [term.term, fixed(term.standardError, 3), fixed(term.vif, 1), fixed(term.power === null ? null : 100 * term.power, 1)]),
+      proposed.terms.map((term) => [term.term === '1' ? '1 (intercept)' : term.term, fixed(term.standardError, 3), fixed(term.vif, 1), fixed(term.power === null ? null : 100 * term.power, 1)]),
       { title: `The proposed plan term by term (power for an effect of ${comparison.delta}σ, α = ${comparison.alpha})` },
     );
     lines.push(termTable.replace(/\n+$/, ''));
     const detail = [
+      residualText(proposed, comparison.p),
       proposed.aCriterion != null ? `A-criterion ${formatNumber(proposed.aCriterion)} σ² (average coefficient variance)` : null,
       proposed.gEfficiency != null ? `G-efficiency ${fixed(proposed.gEfficiency, 1)} % (worst prediction variance against its floor p/N)` : null,
       proposed.maxVif != null ? `largest VIF ${fixed(proposed.maxVif, 1)}` : null,
@@ -196,6 +197,12 @@ export function comparisonText(comparison: Comparison, plan: PlanDocument): stri
     if (confounded) lines.push(...wrap(`Confounded: ${confounded}.`, '    '));
   }
   return `${lines.join('\n')}\n`;
+}
+
+/** "21 fitting runs − 14 coefficients = 7 residual degrees of freedom": what the t-tests have to work with. */
+function residualText(row: ComparatorRow, p: number): string | null {
+  if (row.fittingRuns === undefined) return null;
+  return `${row.fittingRuns} fitting runs − ${p} coefficients = ${row.fittingRuns - p} residual degrees of freedom for the tests`;
 }
 
 /** "inlet_temp^3 with inlet_temp; feed_solids^2 with inlet_temp^2", partners with their alias coefficients. */
