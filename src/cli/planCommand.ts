@@ -46,6 +46,10 @@ export function registerPlan(program: Command): void {
           buildPlan(study, {
             toolVersion: toolVersion(),
             onProgress: showProgress ? (message) => process.stderr.write(`… ${message}\n`) : undefined,
+            // The search is the slow stage (seconds on large grids): count its starts in place.
+            onSearchProgress: showProgress
+              ? (done, total) => process.stderr.write(`\r  start ${done} of ${total}${done === total ? '\n' : ''}`)
+              : undefined,
             runsSetBy: options.runs !== undefined && options.runs !== 'auto' ? 'the --runs option' : undefined,
           }),
         );

@@ -156,6 +156,7 @@ describe('tierplan plan --criterion I', () => {
     const iPlan = runCli(['plan', sample, '--json', '--starts', '4', '--criterion', 'I']);
     const dPlan = runCli(['plan', sample, '--json', '--starts', '4']);
     expect(iPlan.status).toBe(0);
+    expect(dPlan.status).toBe(0);
     const i = JSON.parse(iPlan.stdout).metrics;
     const d = JSON.parse(dPlan.stdout).metrics;
     expect(i.criterion).toBe('I');
