@@ -34,7 +34,7 @@ import {
   type TierPolicy,
 } from '../core/study.js';
 import { readIndexTable, readInteractionTable } from './indexTables.js';
-import { fileSystemProblem, parseJsonText } from './tableRows.js';
+import { fileSystemProblem, parseJsonText, undecodableLine } from './tableRows.js';
 import { didYouMean } from './suggestKey.js';
 
 export const STUDY_EXTENSIONS = ['.yaml', '.yml', '.json'] as const;
@@ -194,6 +194,13 @@ async function readStudyDocument(path: string): Promise<unknown> {
   }
   if (text.charCodeAt(0) === 0xfeff) text = text.slice(1);
   if (text.includes('\u0000')) throw new InputError('is not UTF-8 text (UTF-16 or binary); save it as UTF-8', { file: path });
+  const badLine = undecodableLine(text);
+  if (badLine !== undefined) {
+    throw new InputError(
+      `is not UTF-8 text (line ${badLine} has bytes UTF-8 cannot read, probably a legacy encoding such as Windows-1252); save it as UTF-8`,
+      { file: path },
+    );
+  }
   if (text.trim() === '') throw new InputError('is empty', { file: path });
 
   let data: unknown;

@@ -122,7 +122,27 @@ export function decodeUtf8Text(bytes: Uint8Array, file: string): string {
     );
   }
   const start = bytes[0] === 0xef && bytes[1] === 0xbb && bytes[2] === 0xbf ? 3 : 0;
-  return new TextDecoder('utf-8').decode(bytes.subarray(start));
+  const text = new TextDecoder('utf-8').decode(bytes.subarray(start));
+  const badLine = undecodableLine(text);
+  if (badLine !== undefined) {
+    throw new InputError(
+      `is not UTF-8 text (line ${badLine} has bytes UTF-8 cannot read, probably a legacy encoding such as Windows-1252); save it again as "CSV UTF-8"`,
+      { file },
+    );
+  }
+  return text;
+}
+
+/**
+ * The first line holding U+FFFD, which the UTF-8 decoder puts where bytes are not UTF-8 —
+ * e.g. "°C" saved as Windows-1252. Without this check such text is silently altered.
+ */
+export function undecodableLine(text: string): number | undefined {
+  const at = text.indexOf('\uFFFD');
+  if (at < 0) return undefined;
+  let line = 1;
+  for (let i = 0; i < at; i++) if (text.charCodeAt(i) === 10) line++;
+  return line;
 }
 
 function isCommentLine(line: string): boolean {

@@ -184,6 +184,11 @@ describe('file-level problems', () => {
       Buffer.concat([Buffer.from([0xff, 0xfe]), Buffer.from(BASE_INDICES_CSV, 'utf16le')]),
       'indices.csv: is UTF-16 encoded (a "Unicode text" export); tierplan reads UTF-8 only — save it again as "CSV UTF-8" or plain comma-separated CSV',
     ));
+  it('a legacy 8-bit encoding (Windows-1252 "°") is refused, not silently altered', () =>
+    expectCsvError(
+      Buffer.concat([Buffer.from('# units in '), Buffer.from([0xb0]), Buffer.from(`C\n${BASE_INDICES_CSV}`)]),
+      'indices.csv: is not UTF-8 text (line 1 has bytes UTF-8 cannot read, probably a legacy encoding such as Windows-1252); save it again as "CSV UTF-8"',
+    ));
   it('a workbook saved under a .csv name', async () => {
     const workbook = new ExcelJS.Workbook();
     workbook.addWorksheet('x').addRow(['factor']);

@@ -193,6 +193,15 @@ describe('the study file itself', () => {
     expect(error).toBeInstanceOf(InputError);
     expect((error as InputError).describe()).toMatch(new RegExp(`^${folder}/study.json: is not valid JSON (at|near) line 1, column \\d+: `));
   });
+  it('refuses a study saved in a legacy 8-bit encoding, naming the line', async () => {
+    // "unit: °C" in Windows-1252 is the byte 0xB0, which UTF-8 cannot read.
+    const folder = writeFiles({ 'study.yaml': Buffer.concat([Buffer.from('title: x\nunit: '), Buffer.from([0xb0]), Buffer.from('C\n')]) });
+    await expectInputError(
+      () => loadStudy(join(folder, 'study.yaml')),
+      `${folder}/study.yaml: is not UTF-8 text (line 2 has bytes UTF-8 cannot read, probably a legacy encoding such as Windows-1252); save it as UTF-8`,
+      folder,
+    );
+  });
   it('refuses a key given twice in a JSON study (YAML does too)', async () => {
     const folder = writeFiles({ 'study.json': '{\n  "title": "a",\n  "title": "b"\n}' });
     await expectInputError(
