@@ -23,6 +23,7 @@ import { indexChartSvg } from './charts/indexChart.js';
 import { sweepSlice, thresholdSweepChartSvg } from './charts/thresholdSweepChart.js';
 import { COMPARATOR_SHORT_NAME, predictionVarianceChartSvg } from './charts/predictionVarianceChart.js';
 import { formatSetting } from './benchWorksheets.js';
+import { PURPOSE_WORDS } from './runSheetTable.js';
 
 const DASH = '—';
 
@@ -206,12 +207,14 @@ function runRows(plan: PlanDocument, schedule: Schedule | undefined) {
     ? schedule.order.map((entry) => ({ sequence: String(entry.sequence), session: String(entry.session), point: entry.point }))
     : plan.runs.map((run) => ({ sequence: DASH, session: DASH, point: run.point }));
   return {
+    sessionLabel: schedule?.sessionLabel ?? 'Session',
     headers: varied.map((level) => ({ name: level.name, unit: level.unit })),
     rows: order.map((entry) => {
       const run = runByPoint.get(entry.point);
       return {
         ...entry,
-        purpose: run?.purpose ?? DASH,
+        // The run sheet's own words, so manager and technician read the same kind of run.
+        purpose: run ? PURPOSE_WORDS[run.purpose] : DASH,
         settings: varied.map((level) => {
           const value = run?.settings[level.id];
           return value === undefined ? DASH : formatSetting(value, factorById.get(level.id)?.precision);

@@ -209,6 +209,17 @@ describe('manager report', () => {
     expect(svg).toContain('&lt;script&gt;alert(1)&lt;/script&gt;');
   });
 
+  it('lists the run order in the run sheet\'s words: the session label and the kind of run', async () => {
+    const plan = makePlanFixture();
+    const html = await managerReportHtml(plan, plan.schedule);
+    const table = html.slice(html.indexOf('Appendix E ·'), html.indexOf('Appendix F ·'));
+    expect(table).toContain('<th class="num">Day</th><th>Point</th><th>Kind of run</th>');
+    // Fixture schedule: run 1 is C1, run 2 is F03, run 5 is H1.
+    expect(table).toContain('<td class="num">1</td><td class="num">1</td><td>C1</td><td>Centre repeat</td>');
+    expect(table).toContain('<td>F03</td><td>Model run</td>');
+    expect(table).toContain('<td>H1</td><td>Validation run</td>');
+  });
+
   it('works without comparison and schedule, and says so', async () => {
     const plan = makePlanFixture({ comparison: undefined, schedule: undefined });
     const html = await managerReportHtml(plan, undefined);
