@@ -170,7 +170,8 @@ export function comparisonText(comparison: Comparison, plan: PlanDocument): stri
   lines.push('What the columns mean');
   const notes = [
     'Fit runs: the runs each plan\'s figures are computed on. For the proposed plan these are its model and centre runs ' +
-      '(its holdout runs only check predictions, and count in runs, cost and time); for the other plans, all their runs.',
+      '(its holdout runs only check predictions, and count in runs, cost and time); for the other plans, all their runs. ' +
+      'The centre runs are why the proposed plan\'s D-eff and Avg var here differ from those `tierplan plan` prints for its model runs alone.',
     'D-eff: textbook D-efficiency 100·|X\'X|^(1/p)/N, relative to an ideal orthogonal two-level plan of the same size. ' +
       'Models with squared or cubic terms never reach 100 %, so compare the rows with each other, not with 100.',
     'Info/run, Info total: information (det X\'X)^(1/p) relative to the proposed plan, per run and in total; ' +

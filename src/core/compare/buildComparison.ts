@@ -186,11 +186,13 @@ function evaluationDetail(evaluation: DesignEvaluation): Partial<ComparatorRow> 
 
 /** The power convention in words (termPower.ts), stored with the figures it explains. */
 function powerConvention(delta: number, alpha: number): string {
+  const sigmas = (value: number) => `${Number(value.toPrecision(4))}σ`;
   return (
     `Power: the chance that a two-sided t-test at α = ${alpha} declares a term non-zero when that term alone moves ` +
-    `the response by ${delta}σ across the studied range (coefficient ${delta}σ/2 for a linear, cubic or interaction term, ` +
-    `${delta}σ for a squared term; σ = the run-to-run standard deviation). A term whose column overlaps other terms ` +
-    `(high VIF, e.g. a factor's linear and cubic terms) is estimated imprecisely on its own and gets low power.`
+    `the response by ${delta}σ across the studied range (σ = the run-to-run standard deviation): a coefficient of ` +
+    `${sigmas(delta / 2)} for a term whose column spans 2 coded units (x, x·z, x³) and ${sigmas(delta)} for one that spans 1 (x²). ` +
+    `A term whose column overlaps other terms (high VIF, e.g. a factor's linear and cubic terms) is estimated ` +
+    `imprecisely on its own and gets low power.`
   );
 }
 
