@@ -17,6 +17,7 @@ import type { PlannedRun, RunPurpose } from '../core/design/designTypes.js';
 import type { Factor } from '../core/study.js';
 import { InputError } from '../core/inputError.js';
 import { renderTemplate } from './templateRendering.js';
+import { decimalsOf, roundTo } from './runSheetTable.js';
 
 const PURPOSE_TEXT: Record<RunPurpose, { title: string; hint: string }> = {
   fit: { title: 'Model-fitting run', hint: 'Used to estimate the model.' },
@@ -24,18 +25,16 @@ const PURPOSE_TEXT: Record<RunPurpose, { title: string; hint: string }> = {
   holdout: { title: 'Holdout check run', hint: 'Not used for fitting: checks the model’s predictions afterwards.' },
 };
 
-/** Decimals implied by a settable step: 0.1 → 1, 0.25 → 2, 5 → 0. */
-function decimalsOf(precision: number | undefined): number | null {
-  if (precision === undefined || !(precision > 0)) return null;
-  for (let decimals = 0; decimals <= 10; decimals += 1) {
-    if (Math.abs(Math.round(precision * 10 ** decimals) - precision * 10 ** decimals) < 1e-9) return decimals;
-  }
-  return 10;
-}
-
+/**
+ * A setting as the worksheets and the report print it: on the factor's settable step, with the
+ * decimals that step implies (0.1 → 1, 0.25 → 2, 5 → 0), the same rounding as the run sheets
+ * (`runSheetTable.ts`), so the bench page and the spreadsheet never disagree.
+ */
 export function formatSetting(value: number, precision: number | undefined): string {
-  const decimals = decimalsOf(precision);
-  if (decimals !== null) return value.toFixed(decimals);
+  if (precision !== undefined && precision > 0) {
+    const decimals = decimalsOf(precision);
+    return roundTo(value, precision, decimals).toFixed(decimals);
+  }
   // No precision given: six significant figures, trailing zeros dropped.
   return String(Number(value.toPrecision(6)));
 }

@@ -74,7 +74,8 @@ export function decimalsOf(step: number): number {
   return 10;
 }
 
-function roundTo(value: number, step: number | undefined, decimals: number): number {
+/** `value` on the factor's settable step, shown with `decimals` digits; never `-0`. */
+export function roundTo(value: number, step: number | undefined, decimals: number): number {
   const stepped = step && step > 0 ? Math.round(value / step) * step : value;
   const rounded = Number(stepped.toFixed(decimals));
   return rounded === 0 ? 0 : rounded;

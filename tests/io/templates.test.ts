@@ -36,6 +36,10 @@ describe('formatSetting', () => {
     expect(formatSetting(1.25, 0.25)).toBe('1.25');
     expect(formatSetting(20000, 100)).toBe('20000');
     expect(formatSetting(180, 1)).toBe('180');
+    // Off-step values land on the step, as on the run sheets: 37.3 → 37.5 (step 0.5), 172 → 170 (step 5).
+    expect(formatSetting(37.3, 0.5)).toBe('37.5');
+    expect(formatSetting(172, 5)).toBe('170');
+    expect(formatSetting(-0.04, 0.1)).toBe('0.0');
     expect(formatSetting(1 / 3, undefined)).toBe('0.333333');
   });
 });
