@@ -17,12 +17,13 @@ import type { PlannedRun, RunPurpose } from '../core/design/designTypes.js';
 import type { Factor } from '../core/study.js';
 import { InputError } from '../core/inputError.js';
 import { renderTemplate } from './templateRendering.js';
-import { decimalsOf, roundTo } from './runSheetTable.js';
+import { decimalsOf, PURPOSE_WORDS, roundTo } from './runSheetTable.js';
 
+// Titles are the run sheets' words (PURPOSE_WORDS), so paper and spreadsheet name a run alike.
 const PURPOSE_TEXT: Record<RunPurpose, { title: string; hint: string }> = {
-  fit: { title: 'Model-fitting run', hint: 'Used to estimate the model.' },
-  centre: { title: 'Centre point (replicate)', hint: 'Repeated at the middle of the ranges to measure run-to-run scatter.' },
-  holdout: { title: 'Holdout check run', hint: 'Not used for fitting: checks the model’s predictions afterwards.' },
+  fit: { title: PURPOSE_WORDS.fit, hint: 'Used to estimate the model.' },
+  centre: { title: PURPOSE_WORDS.centre, hint: 'Repeated at the middle of the ranges to measure run-to-run scatter and drift.' },
+  holdout: { title: PURPOSE_WORDS.holdout, hint: 'Not used for fitting: checks the model’s predictions afterwards.' },
 };
 
 /**

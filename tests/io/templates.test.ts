@@ -61,6 +61,9 @@ describe('bench worksheets', () => {
       expect(page).toContain('This plan does not replace a hazard review.');
       expect(page).toContain('Local codes and licensed practice prevail');
       expect(page).toContain('Operator (name, signature)');
+      // The kind of run in the run sheets' words (runSheetTable.ts PURPOSE_WORDS).
+      const words = { fit: 'Model run', centre: 'Centre repeat', holdout: 'Validation run' }[entry.purpose];
+      expect(page).toContain(`<strong>${words}</strong>`);
     });
     // Print CSS: a page break after every run page but the last.
     expect(html).toMatch(/\.run-page\s*\{[^}]*break-after:\s*page/);
