@@ -32,7 +32,7 @@ import { fullGrid } from '../classical/fullGrid.js';
 import { groupedLevelChanges } from './campaignCost.js';
 import { toEngineering } from '../design/levels.js';
 
-/** Largest full factorial over all operating factors that is built point by point. */
+/** Largest two-level cube (full factorial, conventional plan, composite cube) built point by point. */
 const MAX_CONVENTIONAL_FACTORS = 16;
 /** Largest full grid that is built and evaluated. */
 const MAX_GRID_RUNS = 250_000;
@@ -132,9 +132,11 @@ function conventional(context: ComparatorContext): ComparatorDesign {
 function fullFactorial(context: ComparatorContext): ComparatorDesign {
   const k = context.variedIds.length;
   const c = context.centreRuns;
+  const label = `Two-level full factorial over the ${k} varied factors + ${centreText(c)}`;
+  if (k > MAX_CONVENTIONAL_FACTORS) return unbuilt('full-factorial', label, `2^${k} = ${2 ** k} runs is too large to build and evaluate`);
   return finish(context, {
     id: 'full-factorial',
-    label: `Two-level full factorial over the ${k} varied factors + ${centreText(c)}`,
+    label,
     points: withCentres(twoLevelFullFactorial(k), k, c),
   });
 }
@@ -206,6 +208,14 @@ function grid(context: ComparatorContext): ComparatorDesign {
 function responseSurfacePlans(context: ComparatorContext): ComparatorDesign[] {
   const k = context.variedIds.length;
   const c = context.centreRuns;
+  if (k > MAX_CONVENTIONAL_FACTORS) {
+    const reason = `its 2^${k} = ${2 ** k}-run cube is too large to build and evaluate`;
+    return [
+      unbuilt('ccd-face', 'Face-centred central composite', reason),
+      unbuilt('ccd-rotatable', 'Rotatable central composite', reason),
+      responseSurfaceBoxBehnken(context),
+    ];
+  }
   const face = centralComposite(k, 'face', c);
   const rotatable = centralComposite(k, 'rotatable', c);
   const alphaText = String(Number(rotatable.alpha.toFixed(3)));
@@ -221,13 +231,16 @@ function responseSurfacePlans(context: ComparatorContext): ComparatorDesign[] {
       axialNotes(context, rotatable.alpha),
     ),
   ];
-  const bbd = boxBehnken(k, c);
-  if (bbd.points === null) {
-    designs.push(unbuilt('box-behnken', 'Box–Behnken', 'reason' in bbd ? bbd.reason : `no Box–Behnken plan for ${k} factors`));
-  } else {
-    designs.push(finish(context, { id: 'box-behnken', label: `Box–Behnken + ${centreText(c)}`, points: bbd.points }));
-  }
+  designs.push(responseSurfaceBoxBehnken(context));
   return designs;
+}
+
+function responseSurfaceBoxBehnken(context: ComparatorContext): ComparatorDesign {
+  const k = context.variedIds.length;
+  const c = context.centreRuns;
+  const bbd = boxBehnken(k, c);
+  if (bbd.points === null) return unbuilt('box-behnken', 'Box–Behnken', 'reason' in bbd ? bbd.reason : `no Box–Behnken plan for ${k} factors`);
+  return finish(context, { id: 'box-behnken', label: `Box–Behnken + ${centreText(c)}`, points: bbd.points });
 }
 
 /** Listed for a model without squared terms, so that the reader sees why they are absent. */

@@ -7,6 +7,7 @@ import type { ComparatorId, ComparatorRow } from '../../../src/core/compare/comp
 import { dEfficiency } from '../../../src/core/evaluate/designCriteria.js';
 import { compileModel } from '../../../src/core/model/modelMatrix.js';
 import { operatingFactor, planFixture } from './comparisonPlanFixture.js';
+import { buildComparators } from '../../../src/core/compare/comparators.js';
 
 const faceCentred3 = [
   [-1, -1, -1], [1, -1, -1], [-1, 1, -1], [1, 1, -1], [-1, -1, 1], [1, -1, 1], [-1, 1, 1], [1, 1, 1],
@@ -254,5 +255,35 @@ describe('buildComparison: a constraint on a factor the proposed plan holds fixe
     expect(conventional.offLimitsRuns).toBe(2);
     expect(conventional.verdict).toMatch(/Cannot be run as listed: 2 of its 9 runs break/);
     expect(result.comparators.find((r) => r.id === 'full-factorial')!.offLimitsRuns).toBe(0);
+  });
+});
+
+describe('buildComparators: 17 varied factors', () => {
+  // Beyond 16 factors a two-level cube (2^17 = 131 072 runs) is listed with the reason instead
+  // of being built; Plackett–Burman still is (20 runs take up to 19 factors, Plackett & Burman
+  // 1946), and Box–Behnken exists only for 3 to 7 factors (Box & Behnken 1960).
+  const ids = Array.from({ length: 17 }, (_, j) => `f${j + 1}`);
+  const designs = buildComparators({
+    variedIds: ids,
+    operatingIds: ids,
+    hardToChange: [],
+    centreRuns: 1,
+    plannedLevels: ids.map(() => [-1, 0, 1]),
+    hasInteractions: false,
+    hasSquares: true,
+    factors: ids.map((id) => operatingFactor(id, 0, 1)),
+  });
+  const design = (id: ComparatorId) => designs.find((d) => d.id === id)!;
+
+  it('lists the oversized cubes and grid unbuilt with the reason and builds the rest', () => {
+    for (const id of ['conventional', 'full-factorial'] as const) {
+      expect(design(id).points).toBeNull();
+      expect(design(id).reason).toMatch(/2\^17 = 131072 runs is too large/);
+    }
+    for (const id of ['ccd-face', 'ccd-rotatable'] as const) expect(design(id).reason).toMatch(/cube is too large/);
+    expect(design('box-behnken').points).toBeNull();
+    expect(design('full-grid').reason).toMatch(/129140163 combinations is too large/); // 3^17
+    expect(design('plackett-burman').points).toHaveLength(21); // 20 runs + 1 centre run
+    expect(design('fractional').resolution).toBeGreaterThanOrEqual(4);
   });
 });
