@@ -160,7 +160,9 @@ export function comparisonText(comparison: Comparison, plan: PlanDocument): stri
     const detail = [
       residualText(proposed, comparison.p),
       proposed.aCriterion != null ? `A-criterion ${formatNumber(proposed.aCriterion)} σ² (average coefficient variance)` : null,
-      proposed.gEfficiency != null ? `G-efficiency ${fixed(proposed.gEfficiency, 1)} % (worst prediction variance against its floor p/N)` : null,
+      proposed.gEfficiency != null
+        ? `G-efficiency ${fixed(proposed.gEfficiency, 1)} % (the floor p/N of the scaled prediction variance against its worst value, ${proposed.gEfficiencyBasis ?? 'over the region'})`
+        : null,
       proposed.maxVif != null ? `largest VIF ${fixed(proposed.maxVif, 1)}` : null,
     ].filter((text): text is string => text !== null);
     if (detail.length > 0) lines.push(...wrap(`${capitalise(detail.join('; '))}.`, ''));

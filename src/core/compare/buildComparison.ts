@@ -178,6 +178,7 @@ function evaluationDetail(evaluation: DesignEvaluation): Partial<ComparatorRow> 
     fittingRuns: evaluation.runs,
     aCriterion: evaluation.aCriterion,
     gEfficiency: evaluation.gEfficiency,
+    gEfficiencyBasis: evaluation.gEfficiencyNote,
     maxVif: evaluation.maxVif,
     aliases: evaluation.nonEstimable.map((entry) => ({ term: entry.term, aliasedWith: entry.aliasedWith.map((a) => ({ ...a })) })),
     terms: evaluation.terms.map((term) => ({ ...term })),

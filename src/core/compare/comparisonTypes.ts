@@ -59,6 +59,8 @@ export interface ComparatorRow {
   aCriterion?: number | null;
   /** G-efficiency in %, against the p/N floor of the largest scaled prediction variance (optional addition). */
   gEfficiency?: number | null;
+  /** Over which points the worst prediction variance of `gEfficiency` was sought (optional addition). */
+  gEfficiencyBasis?: string | null;
   /** Largest variance inflation factor over the model terms (optional addition). */
   maxVif?: number | null;
   /** Terms that cannot be estimated and the estimated terms they are aliased with, from the alias matrix (optional addition). */
