@@ -74,6 +74,8 @@ describe('threshold sweep chart', () => {
     expect((markGroup(svg!, 'sweepMarkers').match(/<path/g) ?? []).length).toBe(5 * 3);
     expect(svg).toContain('in use: 0.30');
     for (const tier of ['critical', 'moderate', 'negligible']) expect(markGroup(svg!, 'sweepLabels')).toContain(`>${tier}</text>`);
+    // Labels in dark text (contrast on greyscale paper), never in the pale orange of the moderate line.
+    expect(markGroup(svg!, 'sweepLabels')).not.toContain(`fill="${OKABE_ITO.orange}"`);
   });
 
   it('returns null when a slice has fewer than two thresholds', async () => {

@@ -81,7 +81,9 @@ export async function thresholdSweepChartSvg(tiers: TierResult, axis: SweptThres
         dy: { field: 'dy' },
         text: { field: 'text' },
         baseline: { value: 'middle' },
-        fill: { scale: 'stroke', field: 'tier' },
+        // Dark text, not the series colour: orange lettering fades on a greyscale print, and the
+        // label sits at the end of its own line, so it needs no colour to say which line it names.
+        fill: { value: NEUTRAL.text },
         fontWeight: { value: 'bold' },
       }),
       referenceRules('thresholdInUse', 'inUse', { above: 6, strokeWidth: 1.25, stroke: { value: NEUTRAL.text }, strokeDash: { value: [5, 3] } }),
