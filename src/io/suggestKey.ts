@@ -6,7 +6,7 @@
  * lower-cased text so that `Nominal` and `nominal` are one edit apart at most. A
  * suggestion is offered only when it is plausibly the same word: at most a third of the
  * longer word's letters differ (at least two edits allowed, so short keys such as `low`
- * still get help). A far-off guess would mislead more than it helps.
+ * still get help), and never every letter. A far-off guess would mislead more than it helps.
  */
 import { distance } from 'fastest-levenshtein';
 
@@ -23,8 +23,10 @@ export function suggestKey(word: string, candidates: readonly string[]): string 
     }
   }
   if (best === undefined) return undefined;
-  const allowed = Math.max(2, Math.floor(Math.max(typed.length, best.length) / 3));
-  return bestDistance <= allowed ? best : undefined;
+  const longer = Math.max(typed.length, best.length);
+  const allowed = Math.max(2, Math.floor(longer / 3));
+  // The two-edit floor must not let a short word be replaced outright (`id` → `s1`).
+  return bestDistance <= allowed && bestDistance < longer ? best : undefined;
 }
 
 /** `; did you mean \`nominal\`?` or, with no close candidate, `; expected one of a, b, c`. */

@@ -27,6 +27,10 @@ describe('suggestKey', () => {
   it('returns nothing for far-off words or an empty candidate list', () => {
     expect(suggestKey('colour', ['maxRuns', 'label'])).toBeUndefined();
     expect(suggestKey('x', [])).toBeUndefined();
+    // Two edits on a two-letter word replace it outright: an `id` column is not a typo of `s1`.
+    expect(suggestKey('id', ['s1', 'st', 'si'])).toBeUndefined();
+    // One edit on a two-letter word still helps.
+    expect(suggestKey('sl', ['s1', 'st'])).toBe('s1');
   });
 
   it('formats the hint', () => {
