@@ -18,7 +18,10 @@ async function main(argv: string[]): Promise<void> {
     .description('From global sensitivity indices to the smallest lab campaign that still calibrates a process model.')
     .version(toolVersion())
     .exitOverride()
-    .showHelpAfterError();
+    // Usage mistakes get the same one-line form as every other user error; `--help` shows the rest.
+    .configureOutput({
+      outputError: (message, write) => write(`tierplan: ${message.replace(/^error: /, '').replace(/\s*\n\s*/g, ' ').trim()} (see tierplan --help)\n`),
+    });
   registerTiers(program);
   registerPlan(program);
   registerCompare(program);
