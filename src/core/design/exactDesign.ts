@@ -27,6 +27,8 @@ import { randomFeasiblePoint } from './gridSampling.js';
 
 /** Largest N·n·p² (multiply-adds per point-exchange pass) for which the Fedorov pass is run. */
 const FEDOROV_BUDGET = 2e7;
+/** Largest (pairs × feasible points) visited by the two-factor support check. */
+const PAIR_CHECK_BUDGET = 5e6;
 /** Safety cap on passes per start; searches converge in far fewer. */
 const MAX_PASSES = 200;
 
@@ -157,7 +159,8 @@ function improve(state: ExchangeState, model: CompiledModel, region: CandidateRe
  * or a factor with m distinct feasible settings and a term x^d·g, d ≥ m, whose lower
  * companions x^i·g, i < m, are all in the model — on m values x^d is a polynomial of degree
  * m − 1 in x (Lagrange interpolation), so that column is a combination of the companions'.
- * Other deficiencies are left to the search, which reports them without a named cause.
+ * Then the same for pairs of factors (`checkPairs`). Other deficiencies are left to the
+ * search, which reports them without a named cause.
  */
 function checkSupport(model: CompiledModel, region: CandidateRegion): void {
   const points = region.points;
@@ -197,6 +200,69 @@ function checkSupport(model: CompiledModel, region: CandidateRegion): void {
         { key: cut ? 'constraints' : 'design.model' },
       );
     }
+  }
+  checkPairs(model, points, region.gridSize);
+}
+
+/**
+ * The same rank argument for two factors at a time: the columns of the terms that involve
+ * only factors a and b are functions of the point's (a, b) settings, so their rank is at most
+ * the number of distinct feasible (a, b) combinations — a corner cut off a two-level square
+ * leaves three combinations for the four terms 1, a, b, a·b. Skipped on grids where the pass
+ * would cost more than PAIR_CHECK_BUDGET point visits.
+ */
+function checkPairs(model: CompiledModel, points: readonly number[][], gridSize: number): void {
+  const { p, exponents } = model;
+  const k = model.factorIds.length;
+  const pairs: [number, number, number[]][] = [];
+  for (let a = 0; a < k; a++) {
+    for (let b = a + 1; b < k; b++) {
+      const inside: number[] = [];
+      let joint = false;
+      for (let t = 0; t < p; t++) {
+        let onlyAB = true;
+        for (let j = 0; j < k && onlyAB; j++) if (j !== a && j !== b && exponents[t * k + j] > 0) onlyAB = false;
+        if (!onlyAB) continue;
+        inside.push(t);
+        if (exponents[t * k + a] > 0 && exponents[t * k + b] > 0) joint = true;
+      }
+      // Without a term in both factors the single-factor check already covers the pair.
+      if (joint) pairs.push([a, b, inside]);
+    }
+  }
+  if (pairs.length === 0 || pairs.length * points.length > PAIR_CHECK_BUDGET) return;
+  // Level index of every coordinate, so a pair's combinations are counted in a small table.
+  const n = points.length;
+  const levelIndex = new Int32Array(n * k);
+  const levelCount = new Int32Array(k);
+  for (let j = 0; j < k; j++) {
+    const index = new Map<number, number>();
+    for (let i = 0; i < n; i++) {
+      const value = points[i][j];
+      let at = index.get(value);
+      if (at === undefined) index.set(value, (at = index.size));
+      levelIndex[i * k + j] = at;
+    }
+    levelCount[j] = index.size;
+  }
+  for (const [a, b, inside] of pairs) {
+    const seen = new Uint8Array(levelCount[a] * levelCount[b]);
+    let combinations = 0;
+    for (let i = 0; i < n; i++) {
+      const cell = levelIndex[i * k + a] * levelCount[b] + levelIndex[i * k + b];
+      if (seen[cell] === 0) {
+        seen[cell] = 1;
+        combinations++;
+      }
+    }
+    if (combinations >= inside.length) continue;
+    const ids = `${model.factorIds[a]} and ${model.factorIds[b]}`;
+    throw new InputError(
+      `the candidate region cannot support the model: ${ids} have only ${combinations} feasible combinations of settings, ` +
+        `too few for the ${inside.length} terms in them (${inside.map((t) => termText(model, t)).join(', ')}); ` +
+        (points.length < gridSize ? 'loosen the constraints, add levels or drop a term' : 'add levels or drop a term'),
+      { key: points.length < gridSize ? 'constraints' : 'design.model' },
+    );
   }
 }
 

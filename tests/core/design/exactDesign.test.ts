@@ -118,6 +118,15 @@ describe('exact design search', () => {
     }
   });
 
+  it('names two factors whose feasible combinations are too few for the terms in them', () => {
+    // Cutting the edge x1 = x2 = 1 off the 2×2×2 cube leaves 6 points (≥ p = 5) but only 3 (x1, x2)
+    // combinations for 1, x1, x2, x1·x2 (rank ≤ 3).
+    const model = modelFromExponents([[0, 0, 0], [1, 0, 0], [0, 1, 0], [0, 0, 1], [1, 1, 0]]);
+    const region = gridRegion(Array(3).fill(TWO_LEVELS), (x) => !(x[0] === 1 && x[1] === 1));
+    const call = () => findExactDesign({ model, region, runs: 6, criterion: 'D', seed: 1, starts: 2 });
+    expect(call).toThrow(/x1 and x2 have only 3 feasible combinations of settings, too few for the 4 terms in them \(1, x1, x2, x1\*x2\)/);
+  });
+
   it('refuses, after searching, a grid too large to enumerate that cannot support the model', () => {
     const model = modelFromExponents(quadraticExponents(2));
     const region = gridRegion([TWO_LEVELS, TWO_LEVELS], () => true, false);
