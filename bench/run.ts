@@ -1,7 +1,8 @@
 /**
  * Benchmark of the exact design search and the continuous bound (`npm run bench`).
  *
- * Per case: search time with the default number of starts, D-efficiency relative to the
+ * Per case: search time with the default number of starts (the time target covers the search
+ * plus the bound, which the user waits for too), D-efficiency relative to the
  * continuous D-optimal bound over several seeds (min / median / max), and the ratio to the
  * best plan found by a search with 50 times as many starts. Prints a table and PASS/FAIL per
  * target. A benchmark, not a test: timings depend on the machine and on its load (printed).
@@ -153,7 +154,12 @@ const verdict = (ok: boolean | null, text: string) => {
   console.log(`  ${ok ? 'PASS' : 'FAIL'}  ${text}`);
 };
 for (const row of rows) {
-  verdict(row.medianSeconds < row.timeTarget, `${row.name}: median search time ${row.medianSeconds.toFixed(2)} s < ${row.timeTarget} s`);
+  // The user waits for the search and the bound together, so the target covers both.
+  const engineSeconds = row.medianSeconds + row.boundSeconds;
+  verdict(
+    engineSeconds < row.timeTarget,
+    `${row.name}: median search + bound ${row.medianSeconds.toFixed(2)} + ${row.boundSeconds.toFixed(2)} = ${engineSeconds.toFixed(2)} s < ${row.timeTarget} s`,
+  );
   verdict(
     row.longRatio ? row.longRatio.worst >= 99 : null,
     row.longRatio
