@@ -61,17 +61,18 @@ describe('grouping by hard-to-change settings', () => {
   });
 });
 
+/** A run on one hard-to-change factor `t`, and the three centre replicates of the cases below. */
+const run = (point: string, purpose: 'fit' | 'centre', t: number) => ({ point, purpose, settings: { t } });
+const threeCentresAt = (t: number) => ['C1', 'C2', 'C3'].map((point) => run(point, 'centre', t));
+
 describe('centre replicates with a hard-to-change setting of their own', () => {
   // Two fit settings (160, 200) and three centres at 180 that no other run shares.
-  const run = (point: string, purpose: 'fit' | 'centre', t: number) => ({ point, purpose, settings: { t } });
   const runs = [
     run('F1', 'fit', 160),
     run('F2', 'fit', 160),
     run('F3', 'fit', 200),
     run('F4', 'fit', 200),
-    run('C1', 'centre', 180),
-    run('C2', 'centre', 180),
-    run('C3', 'centre', 180),
+    ...threeCentresAt(180),
   ];
 
   it('are spread as one-run blocks at the start, middle and end, not run back to back', () => {
@@ -88,14 +89,11 @@ describe('centre replicates with a hard-to-change setting of their own', () => {
 describe('lone centre replicates among blocks of unequal size', () => {
   // One large block (six runs at 160), two one-run blocks (200, 170) and three centres at 180:
   // n = 11, so the middle replicate aims at run index (n − 1)/2 = 5 (0-based).
-  const run = (point: string, purpose: 'fit' | 'centre', t: number) => ({ point, purpose, settings: { t } });
   const runs = [
     ...[1, 2, 3, 4, 5, 6].map((i) => run(`A${i}`, 'fit', 160)),
     run('B1', 'fit', 200),
     run('D1', 'fit', 170),
-    run('C1', 'centre', 180),
-    run('C2', 'centre', 180),
-    run('C3', 'centre', 180),
+    ...threeCentresAt(180),
   ];
 
   it('open and close the campaign, and the middle one sits at the block boundary nearest the middle run', () => {
