@@ -8,7 +8,8 @@
  * of the modified Fedorov point exchange over the n grid points (Cook & Nachtsheim, 1980,
  * Technometrics 22), until a full pass changes nothing. (X'X)⁻¹ is re-inverted after every
  * pass to stop drift of the rank-one/rank-two updates. The best start wins; ties go to the
- * earlier start.
+ * earlier start. An enumerated region that certainly cannot support the model is refused
+ * first, with its cause (regionSupport.ts).
  *
  * Determinism: start s draws from the seeded xoroshiro128+ stream jumped s times (pure-rand),
  * so starts are independent streams and the same seed gives the same plan. The returned
@@ -24,11 +25,10 @@ import { ExchangeState } from './exchangeState.js';
 import { coordinateExchangePass } from './coordinateExchange.js';
 import { fedorovExchangePass, type CandidateSet } from './fedorovExchange.js';
 import { randomFeasiblePoint } from './gridSampling.js';
+import { checkRegionSupport } from './regionSupport.js';
 
 /** Largest N·n·p² (multiply-adds per point-exchange pass) for which the Fedorov pass is run. */
 const FEDOROV_BUDGET = 2e7;
-/** Largest (pairs × feasible points) visited by the two-factor support check. */
-const PAIR_CHECK_BUDGET = 5e6;
 /** Safety cap on passes per start; searches converge in far fewer. */
 const MAX_PASSES = 200;
 
@@ -76,7 +76,7 @@ export function findExactDesign(request: ExactDesignRequest): ExactDesignResult 
   if (!Number.isInteger(starts) || starts < 1) {
     throw new InputError(`the number of search starts must be a whole number of at least 1, not ${starts}`, { key: 'design.starts' });
   }
-  checkSupport(model, region);
+  checkRegionSupport(model, region);
   const candidates = fedorovCandidates(model, region, runs);
   // Computed on first use, so an empty region is reported as such rather than as a moment failure.
   let moments = request.moments ?? null;
@@ -151,129 +151,6 @@ function improve(state: ExchangeState, model: CompiledModel, region: CandidateRe
     if (moved === 0 && ridgeBefore === state.ridge) return pass;
   }
   return MAX_PASSES;
-}
-
-/**
- * Refuses, before any search, an enumerated region that certainly cannot support the model,
- * naming the cause: fewer distinct feasible points than parameters (X has at most that rank),
- * or a factor with m distinct feasible settings and a term x^d·g, d ≥ m, whose lower
- * companions x^i·g, i < m, are all in the model — on m values x^d is a polynomial of degree
- * m − 1 in x (Lagrange interpolation), so that column is a combination of the companions'.
- * Then the same for pairs of factors (`checkPairs`). Other deficiencies are left to the
- * search, which reports them without a named cause.
- */
-function checkSupport(model: CompiledModel, region: CandidateRegion): void {
-  const points = region.points;
-  if (points === null) return;
-  const { p, exponents } = model;
-  const k = model.factorIds.length;
-  if (points.length < p) {
-    throw new InputError(
-      `the candidate region cannot support the model: it has only ${points.length} feasible grid point${points.length === 1 ? '' : 's'}, ` +
-        `fewer than the ${p} model parameters; ` +
-        'loosen the constraints, add levels or simplify the model',
-      { key: points.length < region.gridSize ? 'constraints' : 'design.model' },
-    );
-  }
-  const termKeys = new Set<string>();
-  for (let t = 0; t < p; t++) termKeys.add(exponents.subarray(t * k, (t + 1) * k).join(','));
-  for (let j = 0; j < k; j++) {
-    const settings = new Set(points.map((point) => point[j]));
-    const m = settings.size;
-    for (let t = 0; t < p; t++) {
-      const power = exponents[t * k + j];
-      if (power < m) continue;
-      const companion = Array.from(exponents.subarray(t * k, (t + 1) * k));
-      let allPresent = true;
-      for (let i = 0; i < m && allPresent; i++) {
-        companion[j] = i;
-        allPresent = termKeys.has(companion.join(','));
-      }
-      if (!allPresent) continue;
-      const id = model.factorIds[j];
-      const cut = m < region.levels[j].length;
-      throw new InputError(
-        `the candidate region cannot support the model: ${id} has only ${m} feasible setting${m === 1 ? '' : 's'}` +
-          `${cut ? ` of its ${region.levels[j].length} levels` : ''}, too few for the term ${termText(model, t)} ` +
-          `(power ${power} needs ${power + 1} distinct settings); ` +
-          (cut ? 'loosen the constraints that exclude the other levels or drop the term' : 'add levels or drop the term'),
-        { key: cut ? 'constraints' : 'design.model' },
-      );
-    }
-  }
-  checkPairs(model, points, region.gridSize);
-}
-
-/**
- * The same rank argument for two factors at a time: the columns of the terms that involve
- * only factors a and b are functions of the point's (a, b) settings, so their rank is at most
- * the number of distinct feasible (a, b) combinations — a corner cut off a two-level square
- * leaves three combinations for the four terms 1, a, b, a·b. Skipped on grids where the pass
- * would cost more than PAIR_CHECK_BUDGET point visits.
- */
-function checkPairs(model: CompiledModel, points: readonly number[][], gridSize: number): void {
-  const { p, exponents } = model;
-  const k = model.factorIds.length;
-  const pairs: [number, number, number[]][] = [];
-  for (let a = 0; a < k; a++) {
-    for (let b = a + 1; b < k; b++) {
-      const inside: number[] = [];
-      let joint = false;
-      for (let t = 0; t < p; t++) {
-        let onlyAB = true;
-        for (let j = 0; j < k && onlyAB; j++) if (j !== a && j !== b && exponents[t * k + j] > 0) onlyAB = false;
-        if (!onlyAB) continue;
-        inside.push(t);
-        if (exponents[t * k + a] > 0 && exponents[t * k + b] > 0) joint = true;
-      }
-      // Without a term in both factors the single-factor check already covers the pair.
-      if (joint) pairs.push([a, b, inside]);
-    }
-  }
-  if (pairs.length === 0 || pairs.length * points.length > PAIR_CHECK_BUDGET) return;
-  // Level index of every coordinate, so a pair's combinations are counted in a small table.
-  const n = points.length;
-  const levelIndex = new Int32Array(n * k);
-  const levelCount = new Int32Array(k);
-  for (let j = 0; j < k; j++) {
-    const index = new Map<number, number>();
-    for (let i = 0; i < n; i++) {
-      const value = points[i][j];
-      let at = index.get(value);
-      if (at === undefined) index.set(value, (at = index.size));
-      levelIndex[i * k + j] = at;
-    }
-    levelCount[j] = index.size;
-  }
-  for (const [a, b, inside] of pairs) {
-    const seen = new Uint8Array(levelCount[a] * levelCount[b]);
-    let combinations = 0;
-    for (let i = 0; i < n; i++) {
-      const cell = levelIndex[i * k + a] * levelCount[b] + levelIndex[i * k + b];
-      if (seen[cell] === 0) {
-        seen[cell] = 1;
-        combinations++;
-      }
-    }
-    if (combinations >= inside.length) continue;
-    const ids = `${model.factorIds[a]} and ${model.factorIds[b]}`;
-    throw new InputError(
-      `the candidate region cannot support the model: ${ids} have only ${combinations} feasible combinations of settings, ` +
-        `too few for the ${inside.length} terms in them (${inside.map((t) => termText(model, t)).join(', ')}); ` +
-        (points.length < gridSize ? 'loosen the constraints, add levels or drop a term' : 'add levels or drop a term'),
-      { key: points.length < gridSize ? 'constraints' : 'design.model' },
-    );
-  }
-}
-
-function termText(model: CompiledModel, t: number): string {
-  const k = model.factorIds.length;
-  const parts: string[] = [];
-  for (let j = 0; j < k; j++) {
-    const power = model.exponents[t * k + j];
-    if (power > 0) parts.push(power === 1 ? model.factorIds[j] : `${model.factorIds[j]}^${power}`);
-  }
-  return parts.length === 0 ? '1' : parts.join('*');
 }
 
 function fedorovCandidates(model: CompiledModel, region: CandidateRegion, runs: number): CandidateSet | null {
