@@ -127,15 +127,13 @@ interface ComparatorView {
 }
 
 /**
- * Runs of a comparator that break the study's constraints or equipment limits. The comparison
- * states this only in its verdict ("8 of its 27 runs break the study's constraints…"), so the
- * count is read from there; a plan without that clause has none. A manager must see it in the
- * table: a plan that estimates more but cannot be run as listed is no real alternative.
+ * Runs of a comparator that break the study's constraints or equipment limits. A manager must
+ * see it in the table: a plan that estimates more but cannot be run as listed is no real
+ * alternative.
  */
-export function runsOutsideLimits(row: Pick<ComparatorRow, 'runs' | 'verdict'>): string {
+export function runsOutsideLimits(row: Pick<ComparatorRow, 'runs' | 'offLimitsRuns'>): string {
   if (row.runs === null) return DASH;
-  const match = /(\d+) of its (\d+) runs? breaks? the study's constraints/.exec(row.verdict);
-  return match ? `${match[1]} of ${match[2]}` : 'none';
+  return row.offLimitsRuns ? `${row.offLimitsRuns} of ${row.runs}` : 'none';
 }
 
 function comparatorView(row: ComparatorRow, currency: string | null): ComparatorView {

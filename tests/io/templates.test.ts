@@ -184,15 +184,15 @@ describe('manager report', () => {
     expect(html).toContain('Feed total solids is borderline');
   });
 
-  it('shows the runs a plan cannot run as listed, read from the comparison verdict', async () => {
-    // The clause as src/core/compare/comparators.ts words it, singular and plural.
-    expect(runsOutsideLimits({ runs: 27, verdict: "Fits the model. 8 of its 27 runs break the study's constraints or equipment limits and cannot be run as listed." })).toBe('8 of 27');
-    expect(runsOutsideLimits({ runs: 27, verdict: "1 of its 27 runs breaks the study's constraints or equipment limits and cannot be run as listed." })).toBe('1 of 27');
-    expect(runsOutsideLimits({ runs: 19, verdict: 'Fits; six runs more.' })).toBe('none');
-    expect(runsOutsideLimits({ runs: null, verdict: 'Not built.' })).toBe('—');
+  it('shows the runs a plan cannot run as listed, from the comparison row', async () => {
+    expect(runsOutsideLimits({ runs: 27, offLimitsRuns: 8 })).toBe('8 of 27');
+    expect(runsOutsideLimits({ runs: 27, offLimitsRuns: 1 })).toBe('1 of 27');
+    expect(runsOutsideLimits({ runs: 19, offLimitsRuns: 0 })).toBe('none');
+    expect(runsOutsideLimits({ runs: 19 })).toBe('none');
+    expect(runsOutsideLimits({ runs: null })).toBe('—');
     const plan = makePlanFixture();
     const bbd = plan.comparison!.comparators.find((row) => row.id === 'box-behnken')!;
-    bbd.verdict += " 3 of its 15 runs break the study's constraints or equipment limits and cannot be run as listed.";
+    bbd.offLimitsRuns = 3;
     const html = await managerReportHtml(plan, plan.schedule);
     const row = html.slice(html.indexOf('data-comparator="box-behnken"'), html.indexOf('</tr>', html.indexOf('data-comparator="box-behnken"')));
     expect(row).toContain('<td class="num">3 of 15</td>');
