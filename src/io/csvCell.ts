@@ -13,6 +13,8 @@
  *   so −1.5 stays a number a spreadsheet can compute with.
  * - The guard also looks past leading spaces and treats a leading line feed like a carriage
  *   return (some spreadsheet programs trim before parsing); stricter than OWASP asks, harmless.
+ * - A cell that is exactly `-` (how studies write a dimensionless unit) is left alone: a lone
+ *   minus cannot form a formula, and `'-` would show its quote in every spreadsheet.
  * - Numbers are written with a fixed count of decimals when given, and `-0` is written `0`.
  */
 
@@ -22,6 +24,7 @@ const FORMULA_TRIGGERS = new Set(['=', '+', '-', '@', '\t', '\r', '\n']);
 
 /** Text as a spreadsheet will show it: a quote prefix when it could start a formula. */
 export function neutraliseFormula(text: string): string {
+  if (text.trim() === '-') return text;
   const first = text.replace(/^ +/, '').charAt(0);
   return FORMULA_TRIGGERS.has(first) ? `'${text}` : text;
 }

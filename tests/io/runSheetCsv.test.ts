@@ -104,6 +104,9 @@ describe('CSV formula-injection guard', () => {
     ['\rx', "'\rx"],
     ['plain', 'plain'],
     ['a=b', 'a=b'],
+    // A lone minus (a dimensionless unit) cannot start a formula; '-- ' still can.
+    ['-', '-'],
+    ['--1', "'--1"],
   ])('neutralises %j', (input, shown) => {
     expect(neutraliseFormula(input)).toBe(shown);
     expect(csvCell(input)).toBe(`"${shown}"`);
