@@ -113,7 +113,7 @@ function overridingOption(key: string | undefined, options: PlanOptions): keyof 
 
 function applyOverrides(study: Study, options: PlanOptions): Study {
   const design = { ...study.design };
-  if (options.seed !== undefined) design.seed = integerOption('--seed', options.seed, 0);
+  if (options.seed !== undefined) design.seed = integerOption('--seed', options.seed, 0, MAX_SEED);
   if (options.starts !== undefined) design.starts = integerOption('--starts', options.starts, 1);
   if (options.runs !== undefined) design.runs = options.runs === 'auto' ? 'auto' : integerOption('--runs', options.runs, 1);
   if (options.criterion !== undefined) {
@@ -124,8 +124,14 @@ function applyOverrides(study: Study, options: PlanOptions): Study {
   return { ...study, design };
 }
 
-function integerOption(name: string, text: string, minimum: number): number {
+/** Seeds feed 32-bit generators: a larger seed would silently repeat a smaller one's design. */
+const MAX_SEED = 4294967295;
+
+function integerOption(name: string, text: string, minimum: number, maximum = Number.MAX_SAFE_INTEGER): number {
   const value = Number(text);
-  if (!Number.isInteger(value) || value < minimum) throw new InputError(`${name} must be a whole number ≥ ${minimum}, not ${text}`);
+  if (!Number.isInteger(value) || value < minimum || value > maximum) {
+    const range = maximum === Number.MAX_SAFE_INTEGER ? `≥ ${minimum}` : `from ${minimum} to ${maximum}`;
+    throw new InputError(`${name} must be a whole number ${range}, not ${text}`);
+  }
   return value;
 }

@@ -100,7 +100,8 @@ const designSchema = z.strictObject({
   criterion: z.enum(['D', 'I']).optional(),
   centreRuns: z.number().int().min(0).optional(),
   holdoutRuns: z.union([z.number().int().min(0), z.literal('auto')], { error: 'must be a whole number of runs (≥ 0) or "auto"' }).optional(),
-  seed: z.number().int().optional(),
+  // 32-bit generators: a larger seed would silently repeat a smaller one's design.
+  seed: z.number().int().min(0).max(4294967295).optional(),
   levels: levelsSchema.optional(),
   starts: z.number().int().min(1).optional(),
 });

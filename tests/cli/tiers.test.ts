@@ -226,8 +226,8 @@ describe('tierplan tiers --out', () => {
     expect(lines[0]).toContain('"total_moisture","total_yield","total_native_whey","total_d50"');
     expect(lines[1]).toMatch(/^"inlet_temp","Inlet air temperature","°C","operating","critical","no",0\.365/);
     expect(lines[5]).toMatch(/^"air_flow",.*"negligible","yes",/);
-    // a unit of "-" starts with a formula trigger and is neutralised (OWASP CSV injection guard)
-    expect(lines.find((line) => line.startsWith('"gab_c"'))).toContain(`"'-"`);
+    // a lone "-" unit cannot start a formula and stays as written (OWASP CSV injection guard, csvCell.ts)
+    expect(lines.find((line) => line.startsWith('"gab_c"'))).toContain(`"-"`);
     expect(readdirSync(dir)).toEqual(['tiers.csv']);
   });
 

@@ -351,6 +351,8 @@ describe('response, policy, design, session and cost rules', () => {
     expectKeyError((study) => (study.design = { criterion: 'A' }), 'design.criterion', 'must be one of "D", "I", not "A"'));
   it('starts must be at least 1', () =>
     expectKeyError((study) => (study.design = { starts: 0 }), 'design.starts', 'must be at least 1, not 0'));
+  it('seed must fit the 32-bit generators', () =>
+    expectKeyError((study) => (study.design = { seed: 4294967296 }), 'design.seed', 'must be at most 4294967295, not 4294967296'));
   it('tier level counts must be at least 2', () =>
     expectKeyError((study) => (study.design = { levels: { critical: 1 } }), 'design.levels.critical', 'must be at least 2, not 1'));
   it('model must be a preset or a term list', () =>
