@@ -2,7 +2,7 @@
  * `tierplan plan <study>`: the whole job — tiers, levels, model, optimal design, centre and
  * holdout runs, run order, comparison — and the files the bench and the manager use.
  */
-import { relative, resolve } from 'node:path';
+import { isAbsolute, relative, resolve } from 'node:path';
 import type { Command } from 'commander';
 import { InputError } from '../core/inputError.js';
 import type { PlanDocument } from '../core/plan/planDocument.js';
@@ -72,7 +72,7 @@ export function registerPlan(program: Command): void {
       process.stdout.write(planSummary(plan));
       if (written.length > 0) {
         process.stdout.write(`\nWrote ${written.length} files to ${options.out}:\n`);
-        for (const path of written) process.stdout.write(`  ${relative(process.cwd(), path) || path}\n`);
+        for (const path of written) process.stdout.write(`  ${shownPath(path)}\n`);
       } else {
         process.stdout.write('\nNothing written: add --out <dir> for plan.json, the run sheets and the report.\n');
       }
@@ -122,6 +122,12 @@ function applyOverrides(study: Study, options: PlanOptions): Study {
     design.criterion = criterion;
   }
   return { ...study, design };
+}
+
+/** A written file relative to the working folder, or absolute when that would climb out of it. */
+function shownPath(path: string): string {
+  const shown = relative(process.cwd(), path);
+  return shown === '' || shown.startsWith('..') || isAbsolute(shown) ? path : shown;
 }
 
 /** Seeds feed 32-bit generators: a larger seed would silently repeat a smaller one's design. */

@@ -49,7 +49,7 @@ export function planSummary(plan: PlanDocument): string {
       : `Efficiency against the continuous optimum: ${formatNumber(metrics.boundEfficiency, 4)} %, ${metrics.boundNote}`,
   );
   lines.push(`Average prediction variance over the region (I-criterion): ${formatNumber(metrics.iCriterion, 3)} σ²`);
-  if (plan.schedule) lines.push(`Run order: ${plan.schedule.note}`);
+  if (plan.schedule) lines.push(plan.schedule.note);
 
   const comparison = plan.comparison;
   if (comparison) {
