@@ -25,7 +25,7 @@
 import type { IndexRow, InteractionRow } from '../core/study.js';
 import { InputError, type InputLocation } from '../core/inputError.js';
 import { cellLocation, readTableRows, rowLocation, type CellValue, type TableRow, type TableRows } from './tableRows.js';
-import { didYouMean, suggestKey } from './suggestKey.js';
+import { didYouMean, suggestKey } from '../core/suggestKey.js';
 
 export type IndexColumn = 'factor' | 'response' | 'first' | 'total' | 'first_low' | 'first_high' | 'total_low' | 'total_high';
 export type InteractionColumn = 'factor_a' | 'factor_b' | 'response' | 'index';

@@ -35,7 +35,7 @@ import {
 } from '../core/study.js';
 import { readIndexTable, readInteractionTable } from './indexTables.js';
 import { fileSystemProblem, parseJsonText, undecodableLine } from './tableRows.js';
-import { didYouMean } from './suggestKey.js';
+import { didYouMean } from '../core/suggestKey.js';
 
 export const STUDY_EXTENSIONS = ['.yaml', '.yml', '.json'] as const;
 

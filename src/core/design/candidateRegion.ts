@@ -27,7 +27,7 @@ import { InputError } from '../inputError.js';
 import type { Factor } from '../study.js';
 import type { CandidateRegion, FactorLevels } from './designTypes.js';
 import { roundToPrecision, settableValue, toCoded, toEngineering } from './levels.js';
-import { didYouMean } from './termSyntax.js';
+import { didYouMean } from '../suggestKey.js';
 
 /** One design factor of the region, with what is needed to turn coded values into settable ones. */
 export interface RegionAxis {

@@ -9,7 +9,7 @@
  * the closest known id (Levenshtein distance; Levenshtein, 1966, "Binary codes capable of
  * correcting deletions, insertions, and reversals").
  */
-import { closest, distance } from 'fastest-levenshtein';
+import { didYouMean } from '../suggestKey.js';
 import { InputError } from '../inputError.js';
 
 /**
@@ -54,10 +54,3 @@ export function parseTerm(text: string, factorIds: readonly string[], key?: stri
   return powers;
 }
 
-/** ` (did you mean inlet_temp?)` when a known id is close enough to be a likely typo. */
-export function didYouMean(id: string, known: readonly string[]): string {
-  if (known.length === 0) return '';
-  const best = closest(id, known as string[]);
-  const d = distance(id, best);
-  return d <= Math.max(2, Math.floor(best.length / 3)) ? ` (did you mean ${best}?)` : `; known factors: ${known.join(', ')}`;
-}

@@ -92,7 +92,7 @@ describe('constraint expressions', () => {
     expect(model.message).toContain('d_eff, a model parameter');
     const typo = expectInputError(() => buildCandidateRegion(factors, levels, ['feed_rat <= 12']));
     expect(typo.location.key).toBe('constraints[0]');
-    expect(typo.message).toContain('did you mean feed_rate?');
+    expect(typo.message).toContain('did you mean `feed_rate`?');
     const fn = expectInputError(() => buildCandidateRegion(factors, levels, ['frobnicate(feed_rate) <= 12']));
     expect(fn.message).toContain('unknown function frobnicate');
   });

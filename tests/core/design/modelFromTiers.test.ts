@@ -161,7 +161,7 @@ describe('deriveModel explicit lists', () => {
       [['inlet_temp', 'air_flow'], 'design.model[1]', 'fixed at 400'],
       [['feed_rate^3'], 'design.model[0]', 'at least 4 levels of feed_rate, which has 3'],
       [['inlet_temp^4'], 'design.model[0]', 'at least 5 levels'],
-      [['inlet_temp', 'feed_rat'], 'design.model[1]', 'did you mean feed_rate?'],
+      [['inlet_temp', 'feed_rat'], 'design.model[1]', 'did you mean `feed_rate`?'],
       [['inlet_temp', 'd_eff'], 'design.model[1]', 'unknown factor "d_eff"'],
       [['inlet_temp', 'inlet_temp**2'], 'design.model[1]', 'written with ^'],
       [['inlet_temp', 'sqrt(feed_rate)'], 'design.model[1]', 'cannot read'],

@@ -31,9 +31,9 @@ describe('parseTerm', () => {
     const e = expectInputError(() => parseTerm('inlet_tmp*feed_rate', ids, 'design.model[3]'));
     expect(e.location.key).toBe('design.model[3]');
     expect(e.message).toContain('unknown factor "inlet_tmp"');
-    expect(e.message).toContain('did you mean inlet_temp?');
+    expect(e.message).toContain('did you mean `inlet_temp`?');
     const far = expectInputError(() => parseTerm('viscosity', ids, 'design.model[0]'));
-    expect(far.message).toContain('known factors: inlet_temp, feed_solids');
+    expect(far.message).toContain('expected one of inlet_temp, feed_solids');
   });
 
   it('reports syntax errors with the key', () => {

@@ -5,7 +5,7 @@
  * Processing", ch. 2).
  */
 import { describe, expect, it } from 'vitest';
-import { didYouMean, suggestKey } from '../../src/io/suggestKey.js';
+import { didYouMean, suggestKey } from '../../src/core/suggestKey.js';
 
 describe('suggestKey', () => {
   it('suggests the closest key within a third of the word length', () => {
