@@ -28,6 +28,7 @@ import type { Factor } from '../study.js';
 import type { CandidateRegion, FactorLevels } from './designTypes.js';
 import { roundToPrecision, settableValue, toCoded, toEngineering } from './levels.js';
 import { didYouMean } from '../suggestKey.js';
+import { gridPoints } from './gridPoints.js';
 
 /** One design factor of the region, with what is needed to turn coded values into settable ones. */
 export interface RegionAxis {
@@ -173,23 +174,6 @@ export function settableCoded(axis: RegionAxis, coded: number): number {
   return roundToPrecision(toCoded(axis, settableValue(axis, toEngineering(axis, coded))));
 }
 
-/** Every point of the full grid, last factor fastest. */
-function* gridPoints(levelSets: number[][]): Generator<number[]> {
-  const k = levelSets.length;
-  const index = new Array<number>(k).fill(0);
-  if (levelSets.some((s) => s.length === 0)) return;
-  while (true) {
-    yield index.map((at, j) => levelSets[j][at]);
-    let j = k - 1;
-    while (j >= 0) {
-      index[j]++;
-      if (index[j] < levelSets[j].length) break;
-      index[j] = 0;
-      j--;
-    }
-    if (j < 0) return;
-  }
-}
 
 function compileConstraint(text: string, i: number, factors: Factor[], levels: FactorLevels[]): EvalFunction {
   const key = `constraints[${i}]`;

@@ -19,6 +19,7 @@ import { InputError } from '../inputError.js';
 import type { Factor } from '../study.js';
 import type { CandidateRegion, FactorLevels } from './designTypes.js';
 import { roundToPrecision, settableValue, toCoded, toEngineering } from './levels.js';
+import { gridPoints } from './gridPoints.js';
 
 const ENUMERATE_LIMIT = 250_000;
 
@@ -101,27 +102,16 @@ function squaredNorm(x: ArrayLike<number>): number {
 
 /** Nearest feasible point to coded 0 on the fine grid; ties go to the first in grid order. */
 function nearestByEnumeration(region: CandidateRegion, fine: number[][]): number[] | null {
-  const k = fine.length;
-  const index = new Array<number>(k).fill(0);
-  const point = new Array<number>(k);
   let best: number[] | null = null;
   let bestNorm = Infinity;
-  while (true) {
-    for (let j = 0; j < k; j++) point[j] = fine[j][index[j]];
+  for (const point of gridPoints(fine)) {
     const norm = squaredNorm(point);
     if (norm < bestNorm - 1e-12 && region.isFeasible(point)) {
-      best = [...point];
+      best = point;
       bestNorm = norm;
     }
-    let j = k - 1;
-    while (j >= 0) {
-      index[j]++;
-      if (index[j] < fine[j].length) break;
-      index[j] = 0;
-      j--;
-    }
-    if (j < 0) return best;
   }
+  return best;
 }
 
 /** Seeded random sample of the fine grid, then coordinate descent towards coded 0. */
