@@ -10,7 +10,7 @@
  * is what lets the search handle grids such as 3^10 or 4^10. A one-coordinate move changes
  * only the model terms containing that factor, so a trial costs O(p·t) with t those terms.
  */
-import { expandInto, type CompiledModel } from '../model/modelMatrix.js';
+import { expandInto, termValue, type CompiledModel } from '../model/modelMatrix.js';
 import type { CandidateRegion } from './designTypes.js';
 import type { ExchangeState } from './exchangeState.js';
 
@@ -66,17 +66,6 @@ function termsOfFactor(model: CompiledModel): Int32Array[] {
  * row's terms are copied and only the terms containing that factor are recomputed.
  */
 function expandChanged(model: CompiledModel, trial: Float64Array, rows: Float64Array, rowStart: number, changed: Int32Array, out: Float64Array): void {
-  const { p, exponents } = model;
-  const k = model.factorIds.length;
-  for (let t = 0; t < p; t++) out[t] = rows[rowStart + t];
-  for (let m = 0; m < changed.length; m++) {
-    const t = changed[m];
-    let value = 1;
-    const base = t * k;
-    for (let j = 0; j < k; j++) {
-      const e = exponents[base + j];
-      if (e !== 0) value *= e === 1 ? trial[j] : trial[j] ** e;
-    }
-    out[t] = value;
-  }
+  for (let t = 0; t < model.p; t++) out[t] = rows[rowStart + t];
+  for (let m = 0; m < changed.length; m++) out[changed[m]] = termValue(model, changed[m], trial);
 }

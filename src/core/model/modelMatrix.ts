@@ -34,19 +34,22 @@ export function compileModel(terms: readonly Pick<ModelTerm, 'powers'>[], factor
   return { factorIds, p, exponents, maxPower };
 }
 
+/** Value of term `t` at the coded point `x` (length k). */
+export function termValue(model: CompiledModel, t: number, x: ArrayLike<number>): number {
+  const { exponents } = model;
+  const k = model.factorIds.length;
+  const base = t * k;
+  let value = 1;
+  for (let j = 0; j < k; j++) {
+    const e = exponents[base + j];
+    if (e !== 0) value *= e === 1 ? x[j] : x[j] ** e;
+  }
+  return value;
+}
+
 /** Writes f(x) for the coded point `x` (length k) into `out` (length p). */
 export function expandInto(model: CompiledModel, x: ArrayLike<number>, out: Float64Array): void {
-  const { p, exponents } = model;
-  const k = model.factorIds.length;
-  for (let t = 0; t < p; t++) {
-    let value = 1;
-    const base = t * k;
-    for (let j = 0; j < k; j++) {
-      const e = exponents[base + j];
-      if (e !== 0) value *= e === 1 ? x[j] : x[j] ** e;
-    }
-    out[t] = value;
-  }
+  for (let t = 0; t < model.p; t++) out[t] = termValue(model, t, x);
 }
 
 /** The N × p model matrix of coded points, row-major. */
