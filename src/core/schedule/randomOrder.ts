@@ -30,11 +30,6 @@ export function createRandom(seed: number): RandomGenerator {
   return xoroshiro128plus(high === 0 ? low : (low ^ Math.imul(high, 0x9e3779b1)) | 0);
 }
 
-/** Uniform integer in [from, to], both included. */
-export function randomInt(rng: RandomGenerator, from: number, to: number): number {
-  return uniformInt(rng, from, to);
-}
-
 /** A shuffled copy of `items` (the input is left untouched). */
 export function shuffled<T>(items: readonly T[], rng: RandomGenerator): T[] {
   const out = items.slice();
