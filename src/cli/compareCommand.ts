@@ -13,7 +13,7 @@ import { InputError } from '../core/inputError.js';
 import type { PlanDocument } from '../core/plan/planDocument.js';
 import type { ComparatorRow, Comparison } from '../core/compare/comparisonTypes.js';
 import { loadStudy } from '../io/studyFile.js';
-import { readPlanFile } from '../io/planFile.js';
+import { checkedPlan } from '../io/planFile.js';
 import { toolVersion } from '../io/toolVersion.js';
 import { displayWidth, formatNumber, renderTable } from '../io/textTable.js';
 
@@ -44,7 +44,8 @@ export function registerCompare(program: Command): void {
 }
 
 async function planFrom(file: string): Promise<PlanDocument> {
-  if (await isPlanDocument(file)) return readPlanFile(file);
+  const planDocument = await parsedPlanDocument(file);
+  if (planDocument !== null) return checkedPlan(planDocument, file);
   const study = await loadStudy(file);
   for (const warning of study.warnings) process.stderr.write(`warning: ${warning}\n`);
   const showProgress = Boolean(process.stderr.isTTY);
@@ -60,20 +61,23 @@ async function planFrom(file: string): Promise<PlanDocument> {
   }
 }
 
-/** A JSON file whose top level has `formatVersion` is a plan document. */
-async function isPlanDocument(file: string): Promise<boolean> {
-  if (extname(file).toLowerCase() !== '.json') return false;
+/**
+ * The parsed content of a JSON file whose top level has `formatVersion` (a plan document), or
+ * null for anything else. Parsed once here and checked by `checkedPlan`, not read a second time.
+ */
+async function parsedPlanDocument(file: string): Promise<object | null> {
+  if (extname(file).toLowerCase() !== '.json') return null;
   let text: string;
   try {
     text = await readFile(file, 'utf8');
   } catch {
-    return false; // let the study reader report the missing file in its own words
+    return null; // let the study reader report the missing file in its own words
   }
   try {
     const parsed: unknown = JSON.parse(text);
-    return typeof parsed === 'object' && parsed !== null && 'formatVersion' in parsed;
+    return typeof parsed === 'object' && parsed !== null && 'formatVersion' in parsed ? parsed : null;
   } catch {
-    return false;
+    return null;
   }
 }
 

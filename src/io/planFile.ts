@@ -40,6 +40,11 @@ export async function readPlanFile(path: string): Promise<PlanDocument> {
   } catch (error) {
     throw new InputError(`not valid JSON: ${(error as Error).message}`, { file: path });
   }
+  return checkedPlan(parsed, path);
+}
+
+/** An already parsed plan.json, refused unless it is format version 1 with a matching checksum. */
+export function checkedPlan(parsed: unknown, path: string): PlanDocument {
   if (typeof parsed !== 'object' || parsed === null || (parsed as { formatVersion?: unknown }).formatVersion !== 1) {
     throw new InputError('not a tierplan plan file (no formatVersion 1)', { file: path, key: 'formatVersion' });
   }
