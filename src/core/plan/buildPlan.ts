@@ -89,7 +89,8 @@ export function buildPlan(study: Study, options: BuildPlanOptions): PlanDocument
     moments: moments.matrix,
     onProgress: options.onSearchProgress,
   });
-  const fitPoints = sortPoints(exact.points);
+  // Already in standard order (first factor slowest, ascending); the schedule randomises.
+  const fitPoints = exact.points;
 
   progress('computing the continuous D-optimal bound');
   const bound = boundForRegion(model, region, fitPoints, design.seed);
@@ -158,14 +159,6 @@ function plannedRun(
     codedMap[level.id] = coded[j];
   });
   return { point, purpose, coded: codedMap, settings: settingsFor(codedMap, levels, study.factors) };
-}
-
-/** Standard order for reading: first factor slowest, ascending. The schedule randomises. */
-function sortPoints(points: number[][]): number[][] {
-  return [...points].sort((a, b) => {
-    for (let j = 0; j < a.length; j++) if (a[j] !== b[j]) return a[j] - b[j];
-    return 0;
-  });
 }
 
 function pad(n: number, total: number): string {
