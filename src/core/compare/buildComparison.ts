@@ -29,7 +29,7 @@ import { regionMoments } from '../evaluate/regionMoments.js';
 import { DEFAULT_ALPHA, DEFAULT_DELTA, evaluateDesign, type DesignEvaluation } from '../evaluate/designEvaluation.js';
 import { predictionSample } from '../evaluate/predictionVariance.js';
 import type { ComparatorId, ComparatorRow, Comparison } from './comparisonTypes.js';
-import { buildComparators, type ComparatorDesign } from './comparators.js';
+import { buildComparators, runPlacement, type ComparatorDesign } from './comparators.js';
 import { campaignCost, groupedLevelChanges } from './campaignCost.js';
 import { comparatorVerdict, comparisonSummary, proposedVerdict } from './verdict.js';
 
@@ -66,20 +66,18 @@ export function buildComparison(plan: PlanDocument, options: ComparisonOptions =
   const codedOf = (coded: Record<string, number>): number[] => variedIds.map((id) => coded[id] ?? 0);
 
   // The proposed plan.
-  const fittingRuns = plan.runs.filter((run) => run.purpose !== 'holdout');
-  const fitPoints = fittingRuns.map((run) => codedOf(run.coded));
-  const holdoutRuns = plan.runs.length - fittingRuns.length;
+  const allPoints = plan.runs.map((run) => codedOf(run.coded));
+  const fitPoints = allPoints.filter((_, i) => plan.runs[i].purpose !== 'holdout');
+  const holdoutRuns = plan.runs.length - fitPoints.length;
   const centreRuns = plan.runs.filter((run) => run.purpose === 'centre').length;
   const proposedEvaluation = evaluate(fitPoints);
   const proposedChanges =
     hardToChange.length === 0
       ? null
       : (plan.schedule?.hardToChange?.levelChanges ??
-        groupedLevelChanges(plan.runs.map((run) => codedOf(run.coded)), hardToChange, (id) => variedIds.indexOf(id)));
+        groupedLevelChanges(allPoints, hardToChange, (id) => variedIds.indexOf(id)));
   const proposedRow = row('proposed', proposedLabel(fitPoints.length - centreRuns, centreRuns, holdoutRuns), plan.runs.length, proposedEvaluation, proposedChanges);
-  const allPoints = plan.runs.map((run) => codedOf(run.coded));
-  proposedRow.offLimitsRuns = allPoints.filter((x) => !region.isFeasible(x)).length;
-  proposedRow.runsOutsideRange = allPoints.filter((x) => x.some((value) => Math.abs(value) > 1 + 1e-9)).length;
+  Object.assign(proposedRow, runPlacement(region, allPoints));
   const verdictContext = { currency: costs?.currency ?? null, termCount: modelTerms.length, delta };
   proposedRow.verdict = proposedVerdict(proposedRow, fitPoints.length, holdoutRuns, verdictContext);
 

@@ -103,7 +103,7 @@ function finish(context: ComparatorContext, design: DesignCore, notes: string[] 
   const points = design.points;
   const levelChanges =
     points && context.hardToChange.length > 0 ? groupedLevelChanges(points, context.hardToChange, variedColumn(context)) : null;
-  return { ...design, levelChanges, notes, ...placement(context, points) };
+  return { ...design, levelChanges, notes, ...runPlacement(context.region, points) };
 }
 
 function unbuilt(id: ComparatorId, label: string, reason: string): ComparatorDesign {
@@ -125,7 +125,7 @@ function conventional(context: ComparatorContext): ComparatorDesign {
   const notes = extra > 0 ? [`varies ${extra} factor${extra === 1 ? '' : 's'} the model does not need`] : [];
   const offLimits = context.conventionalRegion
     ? { offLimitsRuns: all.filter((x) => !context.conventionalRegion!.isFeasible(x)).length, runsOutsideRange: 0 }
-    : placement(context, points);
+    : runPlacement(context.region, points);
   return { id: 'conventional', label, points, levelChanges, notes, ...offLimits };
 }
 
@@ -274,9 +274,8 @@ function axialNotes(context: ComparatorContext, alpha: number): string[] {
 }
 
 /** Runs outside equipment limits or constraints of the region, and runs outside the coded range. */
-function placement(context: ComparatorContext, points: number[][] | null): { offLimitsRuns: number; runsOutsideRange: number } {
+export function runPlacement(region: CandidateRegion | undefined, points: number[][] | null): { offLimitsRuns: number; runsOutsideRange: number } {
   if (!points) return { offLimitsRuns: 0, runsOutsideRange: 0 };
-  const region = context.region;
   return {
     offLimitsRuns: region ? points.filter((x) => !region.isFeasible(x)).length : 0,
     runsOutsideRange: points.filter((x) => x.some((value) => Math.abs(value) > 1 + 1e-9)).length,
