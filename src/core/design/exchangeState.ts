@@ -15,7 +15,7 @@
  * costs ln ridge in the log-determinant); the ridge is dropped at the next refresh at which
  * X'X itself is nonsingular.
  */
-import { expandInto, type CompiledModel } from '../model/modelMatrix.js';
+import { crossProduct, expandInto, type CompiledModel } from '../model/modelMatrix.js';
 import { invertSymmetric } from '../evaluate/cholesky.js';
 import { dot, exchangeRatio, exchangeUpdate, multiplyInto } from './inverseUpdate.js';
 
@@ -92,16 +92,7 @@ export class ExchangeState {
   /** Re-inverts X'X from the rows (stops drift of the updates) and decides the ridge. */
   refresh(): void {
     const { p, N } = this;
-    const M = new Float64Array(p * p);
-    for (let i = 0; i < N; i++) {
-      const base = i * p;
-      for (let a = 0; a < p; a++) {
-        const fa = this.rows[base + a];
-        if (fa === 0) continue;
-        for (let b = 0; b <= a; b++) M[a * p + b] += fa * this.rows[base + b];
-      }
-    }
-    for (let a = 0; a < p; a++) for (let b = 0; b < a; b++) M[b * p + a] = M[a * p + b];
+    const M = crossProduct(this.rows, N, p);
     let logDet = invertSymmetric(M, p, this.inverse, SINGULAR_PIVOT);
     this.ridge = 0;
     if (logDet === Number.NEGATIVE_INFINITY) {

@@ -13,7 +13,7 @@
  * - G-efficiency: see gEfficiency.ts; power: see termPower.ts; VIF: varianceInflation.ts.
  * Only `points` are judged: pass the runs used for fitting (fit and centre runs).
  */
-import { modelMatrix, type CompiledModel } from '../model/modelMatrix.js';
+import { crossProduct, modelMatrix, type CompiledModel } from '../model/modelMatrix.js';
 import type { CandidateRegion } from '../design/designTypes.js';
 import { choleskyFactor, choleskyInverse, choleskyLogDeterminant } from './cholesky.js';
 import { estimability, type NonEstimableTerm } from './estimability.js';
@@ -117,15 +117,7 @@ export function evaluateDesign(model: CompiledModel, points: number[][], options
   };
   if (!fitsModel) return unfit;
 
-  const M = new Float64Array(p * p);
-  for (let i = 0; i < N; i++) {
-    for (let a = 0; a < p; a++) {
-      const value = X[i * p + a];
-      if (value === 0) continue;
-      for (let b = 0; b < p; b++) M[a * p + b] += value * X[i * p + b];
-    }
-  }
-  const L = choleskyFactor(M, p);
+  const L = choleskyFactor(crossProduct(X, N, p), p);
   if (!L) return unfit;
   const inverse = choleskyInverse(L, p);
   const logDet = choleskyLogDeterminant(L, p);
