@@ -36,6 +36,11 @@ function settingKey(value: number): string {
   return Number.isFinite(value) ? value.toPrecision(12) : String(value);
 }
 
+/** The one test of "same setting" for grouping, change counting and the schedule's notes. */
+export function sameSetting(a: number, b: number): boolean {
+  return settingKey(a) === settingKey(b);
+}
+
 /**
  * Runs in a random order where every centre replicate sits at its even-spread slot and the
  * rest (fit and holdout runs alike) fill the other slots at random.
@@ -141,7 +146,7 @@ export function countLevelChanges(sequence: readonly { settings: Record<string, 
   let changes = 0;
   for (let i = 1; i < sequence.length; i++) {
     for (const factor of factorIds) {
-      if (settingKey(sequence[i].settings[factor]) !== settingKey(sequence[i - 1].settings[factor])) changes++;
+      if (!sameSetting(sequence[i].settings[factor], sequence[i - 1].settings[factor])) changes++;
     }
   }
   return changes;

@@ -23,6 +23,7 @@ import {
   distinctSettings,
   groupByHardToChange,
   orderWithCentresSpread,
+  sameSetting,
   type GroupableRun,
 } from './hardToChangeGrouping.js';
 
@@ -143,7 +144,7 @@ function centresSpreadAlone(sequence: GroupableRun[], hardIds: string[]): boolea
   const at = sequence.flatMap((run, index) => (run.purpose === 'centre' ? [index] : []));
   return at.length > 1 && at.every((index, k) => k === 0 || index - at[k - 1] > 1) && at.every((index) => {
     const key = sequence[index].settings;
-    return sequence.every((other) => other.purpose === 'centre' || hardIds.some((id) => other.settings[id] !== key[id]));
+    return sequence.every((other) => other.purpose === 'centre' || hardIds.some((id) => !sameSetting(other.settings[id], key[id])));
   });
 }
 
