@@ -6,7 +6,7 @@
  * - Columns: run number, session, point id, kind of run, every VARIED factor (study order) in
  *   engineering units, one empty entry column per response, then operator, date and remarks.
  * - Headers carry the unit in square brackets, `Inlet air temperature [°C]`, as the other
- *   tables of the tool do; a unit of `-` or none is left out.
+ *   tables of the tool do (`withUnit` of `textTable.ts`); a unit of `-` or none is left out.
  * - Settings are rounded to the factor's precision; the number of decimals shown is the number
  *   of decimals of the precision (0.5 → 1, 100 → 0). Without a precision, the decimals of
  *   the plan's own level values are used (at most 6).
@@ -17,6 +17,7 @@ import { InputError } from '../core/inputError.js';
 import type { RunPurpose } from '../core/design/designTypes.js';
 import type { PlanDocument } from '../core/plan/planDocument.js';
 import type { Schedule } from '../core/schedule/scheduleTypes.js';
+import { withUnit } from './textTable.js';
 
 export type ColumnKind = 'sequence' | 'session' | 'point' | 'purpose' | 'factor' | 'response' | 'operator' | 'date' | 'remarks';
 
@@ -59,11 +60,6 @@ export const SAFETY_CAUTION =
   'This plan does not replace a hazard review; local codes and licensed practice prevail.';
 
 export const FILL_IN_HINT = 'Enter each measured result in its column, in the unit shown; note anything unusual under Remarks.';
-
-export function withUnit(name: string, unit: string | undefined): string {
-  const trimmed = (unit ?? '').trim();
-  return trimmed === '' || trimmed === '-' ? name : `${name} [${trimmed}]`;
-}
 
 /** Decimals needed to show multiples of `step` exactly (0.5 → 1, 0.25 → 2, 100 → 0). */
 export function decimalsOf(step: number): number {

@@ -23,7 +23,8 @@
 import ExcelJS from 'exceljs';
 import type { PlanDocument } from '../core/plan/planDocument.js';
 import type { Schedule } from '../core/schedule/scheduleTypes.js';
-import { FILL_IN_HINT, SAFETY_CAUTION, runSheetTable, withUnit, type RunSheetTable } from './runSheetTable.js';
+import { FILL_IN_HINT, SAFETY_CAUTION, runSheetTable, type RunSheetTable } from './runSheetTable.js';
+import { withUnit } from './textTable.js';
 
 export const SHEET_NAMES = {
   runSheet: 'Run sheet',

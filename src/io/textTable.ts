@@ -83,9 +83,10 @@ function padStart(text: string, width: number): string {
   return ' '.repeat(Math.max(0, width - displayWidth(text))) + text;
 }
 
-function headerText(column: TextColumn): string {
-  const unit = column.unit?.trim();
-  return unit && unit !== '-' ? `${column.header} [${unit}]` : column.header;
+/** `Name [unit]`, or the name alone for no unit or `-` (dimensionless). */
+export function withUnit(name: string, unit: string | undefined): string {
+  const trimmed = (unit ?? '').trim();
+  return trimmed === '' || trimmed === '-' ? name : `${name} [${trimmed}]`;
 }
 
 /**
@@ -119,7 +120,7 @@ export function renderTable(
   options: { title?: string; digits?: number } = {},
 ): string {
   const digits = options.digits ?? DEFAULT_DIGITS;
-  const headers = columns.map(headerText);
+  const headers = columns.map((column) => withUnit(column.header, column.unit));
   const cells: string[][] = rows.map(() => new Array<string>(columns.length).fill(''));
   const aligns: ('left' | 'right')[] = [];
 
