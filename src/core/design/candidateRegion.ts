@@ -26,7 +26,7 @@ import { xoroshiro128plus } from 'pure-rand/generator/xoroshiro128plus';
 import { InputError } from '../inputError.js';
 import type { Factor } from '../study.js';
 import type { CandidateRegion, FactorLevels } from './designTypes.js';
-import { roundToPrecision, settableValue, toCoded, toEngineering } from './levels.js';
+import { toEngineering } from './levels.js';
 import { didYouMean } from '../suggestKey.js';
 import { gridPoints } from './gridPoints.js';
 
@@ -165,15 +165,6 @@ export function buildCandidateRegion(
 
   return { factorIds: axes.map((a) => a.id), levels: levelSets, isFeasible, gridSize, points, axes };
 }
-
-/**
- * A coded value rounded to the nearest settable engineering value (multiple of the
- * precision) and coded back. Used for holdout points that fall between levels.
- */
-export function settableCoded(axis: RegionAxis, coded: number): number {
-  return roundToPrecision(toCoded(axis, settableValue(axis, toEngineering(axis, coded))));
-}
-
 
 function compileConstraint(text: string, i: number, factors: Factor[], levels: FactorLevels[]): EvalFunction {
   const key = `constraints[${i}]`;

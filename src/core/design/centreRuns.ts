@@ -18,7 +18,7 @@ import { xoroshiro128plus } from 'pure-rand/generator/xoroshiro128plus';
 import { InputError } from '../inputError.js';
 import type { Factor } from '../study.js';
 import type { CandidateRegion, FactorLevels } from './designTypes.js';
-import { roundToPrecision, settableValue, toCoded, toEngineering } from './levels.js';
+import { settableCoded, settableValue, toEngineering } from './levels.js';
 import { gridPoints } from './gridPoints.js';
 
 const ENUMERATE_LIMIT = 250_000;
@@ -42,8 +42,7 @@ export function centrePoint(
   const k = axes.length;
   if (k === 0) return { coded: [], note: 'no factor is varied: the centre runs repeat the fixed settings' };
 
-  const settable = (j: number, coded: number): number =>
-    roundToPrecision(toCoded(axes[j], settableValue(axes[j], toEngineering(axes[j], coded))));
+  const settable = (j: number, coded: number): number => settableCoded(axes[j], coded);
   const centre = axes.map((_, j) => settable(j, 0));
 
   if (region.isFeasible(centre)) {

@@ -20,7 +20,7 @@ import { xoroshiro128plus } from 'pure-rand/generator/xoroshiro128plus';
 import { InputError } from '../inputError.js';
 import type { CandidateRegion } from './designTypes.js';
 import type { RegionAxis } from './candidateRegion.js';
-import { settableCoded } from './candidateRegion.js';
+import { settableCoded } from './levels.js';
 
 const ENUMERATE_LIMIT = 250_000;
 const SAMPLE_SIZE = 5000;

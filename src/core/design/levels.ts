@@ -82,6 +82,14 @@ export function settableValue(factor: Pick<Factor, 'low' | 'high' | 'precision'>
 }
 
 /**
+ * A coded value rounded to the nearest settable engineering value (`settableValue`) and coded
+ * back. Used for centre and holdout points that fall between levels.
+ */
+export function settableCoded(factor: Pick<Factor, 'low' | 'high' | 'precision'>, coded: number): number {
+  return roundToPrecision(toCoded(factor, settableValue(factor, toEngineering(factor, coded))));
+}
+
+/**
  * Levels of every operating factor, in study order. Model-role factors are not settings and
  * get no entry. `factors` is the study's full factor list (indices in error keys refer to it).
  */
