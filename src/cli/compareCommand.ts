@@ -96,7 +96,7 @@ const TEXT_WIDTH = 100;
  * The human view: the decision first, then what each plan estimates, what it costs, the
  * proposed plan term by term, what the columns mean, and one verdict per plan.
  */
-export function comparisonText(comparison: Comparison, plan: PlanDocument): string {
+function comparisonText(comparison: Comparison, plan: PlanDocument): string {
   const currency = comparison.currency ?? undefined;
   const rows = comparison.comparators;
   const name = (row: ComparatorRow) => shortName(row, plan);

@@ -30,12 +30,12 @@ export function neutraliseFormula(text: string): string {
 }
 
 /** A quoted, guarded text field. */
-export function csvText(text: string): string {
+function csvText(text: string): string {
   return `"${neutraliseFormula(text).replace(/"/g, '""')}"`;
 }
 
 /** A plain number field; `decimals` fixes the digits after the point. */
-export function csvNumber(value: number, decimals?: number): string {
+function csvNumber(value: number, decimals?: number): string {
   if (!Number.isFinite(value)) throw new RangeError(`cannot write ${value} as a CSV number`);
   let text = decimals === undefined ? String(value) : value.toFixed(decimals);
   if (/^-0(\.0*)?$/.test(text)) text = text.slice(1);

@@ -46,7 +46,7 @@ const THIN: Partial<ExcelJS.Borders> = {
   right: { style: 'thin' },
 };
 
-export function numberFormat(decimals: number): string {
+function numberFormat(decimals: number): string {
   return decimals <= 0 ? '0' : `0.${'0'.repeat(decimals)}`;
 }
 

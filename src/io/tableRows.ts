@@ -49,7 +49,7 @@ export interface TableRows {
   decimalComma: boolean;
 }
 
-export const TABLE_EXTENSIONS = ['.csv', '.xlsx', '.json'] as const;
+const TABLE_EXTENSIONS = ['.csv', '.xlsx', '.json'] as const;
 
 /** Where a cell is, in the terms the user's file uses. */
 export function cellLocation(table: TableRows, row: TableRow, column: number): InputLocation {

@@ -16,7 +16,7 @@ import { fileURLToPath } from 'node:url';
 import Handlebars from 'handlebars';
 
 /** Absolute path of the package's `templates/` folder, with a trailing separator. */
-export function templatesDirectory(): string {
+function templatesDirectory(): string {
   return fileURLToPath(new URL('../../templates/', import.meta.url));
 }
 

@@ -57,7 +57,7 @@ export function tierExportFormat(path: string): TierExportFormat {
   });
 }
 
-export function tierCsv(result: TierResult, responseIds: readonly string[]): string {
+function tierCsv(result: TierResult, responseIds: readonly string[]): string {
   const header = [
     'id',
     'name',

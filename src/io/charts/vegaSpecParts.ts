@@ -16,7 +16,7 @@ import type { EncodeEntry, Mark, Scale, Spec } from 'vega';
 import { NEUTRAL, type SeriesStyle } from './chartPalette.js';
 
 /** Vega config shared by every chart: plain fonts that print well, quiet axes. */
-export const CHART_CONFIG = {
+const CHART_CONFIG = {
   background: '#ffffff',
   font: 'Helvetica, Arial, sans-serif',
   axis: {
