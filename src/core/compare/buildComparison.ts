@@ -22,7 +22,7 @@ import { InputError } from '../inputError.js';
 import type { PlanDocument } from '../plan/planDocument.js';
 import type { CandidateRegion } from '../design/designTypes.js';
 import { compileModel, type CompiledModel } from '../model/modelMatrix.js';
-import { termLabel } from '../model/modelTerm.js';
+import { INTERCEPT_LABEL, termLabel } from '../model/modelTerm.js';
 import { parseTerm } from '../design/termSyntax.js';
 import { buildCandidateRegion } from '../design/candidateRegion.js';
 import { regionMoments } from '../evaluate/regionMoments.js';
@@ -52,7 +52,7 @@ export function buildComparison(plan: PlanDocument, options: ComparisonOptions =
   const termPowers = plan.model.terms.map((text, i) => parseTerm(text, variedIds, `model.terms[${i}]`));
   const modelTerms = termPowers.map((powers) => termLabel({ powers }, variedIds));
   const model = compileModel([{ powers: {} }, ...termPowers.map((powers) => ({ powers }))], variedIds);
-  const termLabels = ['1', ...modelTerms];
+  const termLabels = [INTERCEPT_LABEL, ...modelTerms];
 
   const region = buildCandidateRegion(plan.study.factors, plan.levels, plan.study.constraints);
   const moments = regionMoments(model, region, plan.study.design.seed);
@@ -262,7 +262,7 @@ function addRelative(target: ComparatorRow, evaluation: DesignEvaluation | null,
 }
 
 /** Savings of the proposed plan against `target` (positive = proposed is smaller/cheaper). */
-export function addSavings(target: ComparatorRow, proposed: Pick<ComparatorRow, 'runs' | 'cost'>): void {
+function addSavings(target: ComparatorRow, proposed: Pick<ComparatorRow, 'runs' | 'cost'>): void {
   if (target.runs !== null && proposed.runs !== null) {
     target.runsSaved = target.runs - proposed.runs;
     target.percentRunsSaved = target.runs > 0 ? (100 * target.runsSaved) / target.runs : null;
