@@ -21,6 +21,7 @@ import { InputError } from '../inputError.js';
 import type { CandidateRegion } from './designTypes.js';
 import type { RegionAxis } from './candidateRegion.js';
 import { settableCoded } from './levels.js';
+import { gridPoints } from './gridPoints.js';
 
 const ENUMERATE_LIMIT = 250_000;
 const SAMPLE_SIZE = 5000;
@@ -74,8 +75,9 @@ export function chooseHoldoutRuns(
   const rng = xoroshiro128plus(seed);
   let size = 1;
   for (const set of interior) size *= set.length;
-  const raw = size <= ENUMERATE_LIMIT ? enumerate(interior) : sample(interior, rng);
-  const candidates = raw.filter((p) => region.isFeasible(p) && offFaces(region, p));
+  const raw = size <= ENUMERATE_LIMIT ? gridPoints(interior) : sample(interior, rng);
+  const candidates: number[][] = [];
+  for (const point of raw) if (region.isFeasible(point) && offFaces(region, point)) candidates.push(point);
   if (candidates.length < count && !options.atMost) {
     throw new InputError(
       `only ${candidates.length} interior feasible points are available for ${count} holdout runs; ask for fewer`,
@@ -136,16 +138,6 @@ function offFaces(region: CandidateRegion, point: number[]): boolean {
     probe[j] = point[j];
   }
   return true;
-}
-
-function enumerate(sets: number[][]): number[][] {
-  let out: number[][] = [[]];
-  for (const set of sets) {
-    const next: number[][] = [];
-    for (const prefix of out) for (const c of set) next.push([...prefix, c]);
-    out = next;
-  }
-  return out;
 }
 
 /** Seeded draw of distinct grid points, for grids too large to enumerate. */
