@@ -16,6 +16,7 @@ import { loadStudy } from '../io/studyFile.js';
 import { checkedPlan } from '../io/planFile.js';
 import { toolVersion } from '../io/toolVersion.js';
 import { displayWidth, formatNumber, renderTable } from '../io/textTable.js';
+import { optionNumber } from './optionNumber.js';
 
 interface CompareOptions {
   json?: boolean;
@@ -34,7 +35,7 @@ export function registerCompare(program: Command): void {
     .action(async (file: string, options: CompareOptions) => {
       const delta = positiveNumber(options.delta, 'delta');
       const alpha = positiveNumber(options.alpha, 'alpha');
-      if (alpha >= 1) throw new InputError(`--alpha must lie between 0 and 1, got ${options.alpha}`, { key: 'alpha' });
+      if (alpha >= 1) throw new InputError(`--alpha must lie between 0 and 1, got ${options.alpha}`);
       const plan = await planFrom(file);
       // The design and comparison modules load mathjs and friends: only when a command needs them.
       const { buildComparison } = await import('../core/compare/buildComparison.js');
@@ -82,9 +83,9 @@ async function parsedPlanDocument(file: string): Promise<object | null> {
 }
 
 function positiveNumber(text: string, key: string): number {
-  const value = Number(text);
-  if (text.trim() === '' || !Number.isFinite(value) || value <= 0) {
-    throw new InputError(`--${key} must be a positive number, got "${text}"`, { key });
+  const value = optionNumber(text);
+  if (!Number.isFinite(value) || value <= 0) {
+    throw new InputError(`--${key} must be a positive number, got "${text}"`);
   }
   return value;
 }

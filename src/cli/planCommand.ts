@@ -11,6 +11,7 @@ import { loadStudy } from '../io/studyFile.js';
 import { planJson, sealPlan } from '../io/planFile.js';
 import { toolVersion } from '../io/toolVersion.js';
 import { planSummary } from './planSummary.js';
+import { optionNumber } from './optionNumber.js';
 
 interface PlanOptions {
   out?: string;
@@ -134,7 +135,7 @@ function shownPath(path: string): string {
 const MAX_SEED = 4294967295;
 
 function integerOption(name: string, text: string, minimum: number, maximum = Number.MAX_SAFE_INTEGER): number {
-  const value = Number(text);
+  const value = optionNumber(text);
   if (!Number.isInteger(value) || value < minimum || value > maximum) {
     const range = maximum === Number.MAX_SAFE_INTEGER ? `≥ ${minimum}` : `from ${minimum} to ${maximum}`;
     throw new InputError(`${name} must be a whole number ${range}, not ${text}`);

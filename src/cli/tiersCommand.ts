@@ -12,6 +12,7 @@ import { loadStudy } from '../io/studyFile.js';
 import { painterFor } from '../io/terminalStyle.js';
 import { tierDocument, tierExportFormat, writeTierExport } from '../io/tierExport.js';
 import { tiersSummary } from './tiersSummary.js';
+import { optionNumber } from './optionNumber.js';
 
 interface TiersOptions {
   json?: boolean;
@@ -86,13 +87,9 @@ function parseOverrides(options: TiersOptions): Partial<TierPolicy> {
   return overrides;
 }
 
-/** Decimal notation only: `Number()` alone would also take "0x1", "0b1" and "Infinity". */
-const DECIMAL = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/;
-
 /** A cut-off on the same terms as the study's `policy` keys: strictly between 0 and 1. */
 function fraction(name: string, text: string): number {
-  const trimmed = text.trim();
-  const value = DECIMAL.test(trimmed) ? Number(trimmed) : Number.NaN;
+  const value = optionNumber(text);
   if (!(value > 0 && value < 1)) {
     throw new InputError(`${name} must be a number strictly between 0 and 1 (such as 0.3), not "${text}"`);
   }
