@@ -13,6 +13,7 @@
  */
 import type { CompiledModel } from '../model/modelMatrix.js';
 import type { CandidateRegion } from '../design/designTypes.js';
+import { gridPoints } from '../design/gridPoints.js';
 import { predictionVariances } from './predictionVariance.js';
 
 /** Largest candidate list searched point by point (each point costs p² operations). */
@@ -42,7 +43,8 @@ export function gEfficiency(
     points = region.points;
     note = `maximum over all ${region.points.length} candidate points`;
   } else {
-    const vertices = k <= MAX_VERTEX_FACTORS ? cubeVertices(k).filter((x) => !region || region.isFeasible(x)) : [];
+    const corners = new Array<number[]>(k).fill([-1, 1]);
+    const vertices = k <= MAX_VERTEX_FACTORS ? [...gridPoints(corners)].filter((x) => !region || region.isFeasible(x)) : [];
     points = [...sample, ...designPoints, ...vertices];
     note = `maximum over ${sample.length} quasi-random points, the design points and ${vertices.length} cube vertices (an upper bound on G-efficiency)`;
   }
@@ -50,14 +52,4 @@ export function gEfficiency(
   for (const value of predictionVariances(model, inverse, points)) if (value > maxVariance) maxVariance = value;
   const maxScaledVariance = N * maxVariance;
   return { gEfficiency: (100 * model.p) / maxScaledVariance, maxScaledVariance, note };
-}
-
-function cubeVertices(k: number): number[][] {
-  const vertices: number[][] = [];
-  for (let code = 0; code < 2 ** k; code++) {
-    const vertex: number[] = [];
-    for (let j = 0; j < k; j++) vertex.push((code >> j) & 1 ? 1 : -1);
-    vertices.push(vertex);
-  }
-  return vertices;
 }
