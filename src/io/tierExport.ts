@@ -136,10 +136,10 @@ export async function writeTierExport(
     await rename(temporary, path);
   } catch (error) {
     await unlink(temporary).catch(() => {});
+    // Any file-system refusal (no permission, a folder in the way, a full or read-only disk) is
+    // the user's to fix, like the plan writer's; anything without an error code is our bug.
     const code = (error as NodeJS.ErrnoException).code;
-    if (code === 'EACCES' || code === 'EPERM' || code === 'EISDIR' || code === 'EROFS') {
-      throw new InputError(`cannot write here (${code})`, { file: path });
-    }
+    if (typeof code === 'string') throw new InputError(`cannot write here (${code}); nothing was written`, { file: path });
     throw error;
   }
 }
