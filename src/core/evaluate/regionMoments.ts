@@ -54,11 +54,7 @@ export function regionMoments(model: CompiledModel, region: CandidateRegion, see
     for (let j = 0; j < k; j++) x[j] = lower[j] + ((u[j] + shift[j]) % 1) * (upper[j] - lower[j]);
     if (!region.isFeasible(x)) continue;
     accepted++;
-    expandInto(model, x, f);
-    for (let a = 0; a < p; a++) {
-      const fa = f[a];
-      for (let b = a; b < p; b++) sum[a * p + b] += fa * f[b];
-    }
+    addOuterProduct(model, x, f, sum);
   }
   if (accepted === tried) {
     return {
@@ -73,35 +69,41 @@ export function regionMoments(model: CompiledModel, region: CandidateRegion, see
       });
     }
     // The constraints leave no volume (e.g. an equality written as two inequalities): average the grid.
-    for (const point of region.points) {
-      expandInto(model, point, f);
-      for (let a = 0; a < p; a++) for (let b = a; b < p; b++) sum[a * p + b] += f[a] * f[b];
-    }
+    for (const point of region.points) addOuterProduct(model, point, f, sum);
     accepted = region.points.length;
-    for (let a = 0; a < p; a++) {
-      for (let b = a; b < p; b++) {
-        sum[a * p + b] /= accepted;
-        sum[b * p + a] = sum[a * p + b];
-      }
-    }
     return {
-      matrix: sum,
+      matrix: meanOfSum(sum, accepted, p),
       method: `average over the ${accepted} feasible grid points: none of ${tried} quasi-random points in the box was feasible`,
     };
   }
-  for (let a = 0; a < p; a++) {
-    for (let b = a; b < p; b++) {
-      const mean = sum[a * p + b] / accepted;
-      sum[a * p + b] = mean;
-      sum[b * p + a] = mean;
-    }
-  }
   return {
-    matrix: sum,
+    matrix: meanOfSum(sum, accepted, p),
     method:
       `quasi-Monte Carlo average over ${accepted} feasible points of ${tried} Halton points in the box ${boxText} ` +
       `(random shift from seed ${seed}); the constraints cut about ${Math.round((100 * (tried - accepted)) / tried)} % of the box`,
   };
+}
+
+/** Adds the upper triangle of f(x) f(x)' to `sum`; `f` is scratch of length p. */
+function addOuterProduct(model: CompiledModel, x: ArrayLike<number>, f: Float64Array, sum: Float64Array): void {
+  const p = model.p;
+  expandInto(model, x, f);
+  for (let a = 0; a < p; a++) {
+    const fa = f[a];
+    for (let b = a; b < p; b++) sum[a * p + b] += fa * f[b];
+  }
+}
+
+/** The full symmetric mean, in place, from an upper-triangle sum over `count` points. */
+function meanOfSum(sum: Float64Array, count: number, p: number): Float64Array {
+  for (let a = 0; a < p; a++) {
+    for (let b = a; b < p; b++) {
+      const mean = sum[a * p + b] / count;
+      sum[a * p + b] = mean;
+      sum[b * p + a] = mean;
+    }
+  }
+  return sum;
 }
 
 function describeBox(lower: number[], upper: number[]): string {
