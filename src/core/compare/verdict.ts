@@ -12,6 +12,7 @@
  * as a sign of serious overlap).
  */
 import type { ComparatorRow, Comparison } from './comparisonTypes.js';
+import { wordList } from '../wordList.js';
 
 /** Power at which a term counts as reliably detected (common practice: 80 %). */
 export const GOOD_POWER = 0.8;
@@ -108,11 +109,11 @@ export function describeTerms(terms: readonly string[]): string {
     else others.push(term);
   }
   const parts: string[] = [];
-  if (squared.length) parts.push(`the squared term${squared.length > 1 ? 's' : ''} of ${list(squared)}`);
-  if (cubic.length) parts.push(`the cubic term${cubic.length > 1 ? 's' : ''} of ${list(cubic)}`);
-  if (interactions.length) parts.push(`the interaction${interactions.length > 1 ? 's' : ''} ${list(interactions)}`);
-  if (others.length) parts.push(`the term${others.length > 1 ? 's' : ''} ${list(others)}`);
-  return list(parts);
+  if (squared.length) parts.push(`the squared term${squared.length > 1 ? 's' : ''} of ${wordList(squared)}`);
+  if (cubic.length) parts.push(`the cubic term${cubic.length > 1 ? 's' : ''} of ${wordList(cubic)}`);
+  if (interactions.length) parts.push(`the interaction${interactions.length > 1 ? 's' : ''} ${wordList(interactions)}`);
+  if (others.length) parts.push(`the term${others.length > 1 ? 's' : ''} ${wordList(others)}`);
+  return wordList(parts);
 }
 
 /**
@@ -158,10 +159,6 @@ function offLimitsText(row: ComparatorRow): string {
   return `${count} of its ${row.runs} runs ${count === 1 ? 'breaks' : 'break'} the study's constraints or equipment limits`;
 }
 
-function list(items: readonly string[]): string {
-  if (items.length <= 1) return items.join('');
-  return `${items.slice(0, -1).join(', ')} and ${items[items.length - 1]}`;
-}
 
 function runsText(difference: number): string {
   if (difference === 0) return 'as many runs as the proposed plan';

@@ -26,6 +26,7 @@ import {
   sameSetting,
   type GroupableRun,
 } from './hardToChangeGrouping.js';
+import { wordList } from '../wordList.js';
 
 const GROUP_ORDER_TRIES = 64;
 const DEFAULT_SESSION_LABEL = 'Session';
@@ -75,7 +76,7 @@ export function scheduleRuns(plan: Pick<PlanDocument, 'runs' | 'levels' | 'study
   let hardToChange: Schedule['hardToChange'] = null;
   if (hardIds.length > 0) {
     const levelChanges = countLevelChanges(sequence, hardIds);
-    const names = listNames(hardFactors.map((factor) => factor.name));
+    const names = wordList(hardFactors.map((factor) => factor.name));
     const fewest = hardIds.length === 1 ? distinctSettings(runs, hardIds[0]) - 1 : null;
     const centres = runs.filter((run) => run.purpose === 'centre').length;
     hardToChange = {
@@ -99,7 +100,7 @@ function orderNote(order: ScheduledRun[], sizes: number[], label: string, seed: 
   const centres = order.filter((run) => run.purpose === 'centre').map((run) => run.sequence);
   const parts: string[] = [];
   if (grouped) {
-    const centreText = centres.length === 0 ? '' : `; centre ${centres.length === 1 ? 'repeat is run' : 'repeats are runs'} ${listNames(centres.map(String))}`;
+    const centreText = centres.length === 0 ? '' : `; centre ${centres.length === 1 ? 'repeat is run' : 'repeats are runs'} ${wordList(centres.map(String))}`;
     parts.push(`Run order drawn at random from seed ${seed}, with runs sharing a hard-to-change setting kept together${centreText}`);
   } else {
     const centreText =
@@ -107,7 +108,7 @@ function orderNote(order: ScheduledRun[], sizes: number[], label: string, seed: 
         ? ''
         : centres.length === 1
           ? `; the centre repeat is run ${centres[0]}, mid-campaign`
-          : `; centre repeats are spread evenly (runs ${listNames(centres.map(String))}) to show any drift`;
+          : `; centre repeats are spread evenly (runs ${wordList(centres.map(String))}) to show any drift`;
     parts.push(`Run order drawn at random from seed ${seed}${centreText}`);
   }
   let text = `${parts.join('')}.`;
@@ -148,7 +149,3 @@ function centresSpreadAlone(sequence: GroupableRun[], hardIds: string[]): boolea
   });
 }
 
-function listNames(names: string[]): string {
-  if (names.length <= 1) return names.join('');
-  return `${names.slice(0, -1).join(', ')} and ${names[names.length - 1]}`;
-}
