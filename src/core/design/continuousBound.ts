@@ -29,7 +29,9 @@ import { uniformInt } from 'pure-rand/distribution/uniformInt';
 import type { RandomGenerator } from 'pure-rand/types/RandomGenerator';
 import { expandInto, modelMatrix, type CompiledModel } from '../model/modelMatrix.js';
 import { logDetPerRun } from '../evaluate/designCriteria.js';
-import { invertSymmetric } from '../evaluate/cholesky.js';
+import { invertSymmetric } from '../linalg/cholesky.js';
+import { weightedCrossProduct } from '../linalg/crossProduct.js';
+import { dot, multiplyInto, quadraticForm } from '../linalg/symmetricKernels.js';
 import type { CandidateRegion } from './designTypes.js';
 import { forEachFeasibleGridPoint, randomFeasiblePoint } from './gridSampling.js';
 
@@ -206,22 +208,11 @@ function startingWeights(n: number, initial: Float64Array | undefined): Float64A
 
 /** M = Σ w f f' and its inverse; returns ln det M (−Infinity when singular). */
 function informationAndInverse(F: Float64Array, weights: Float64Array, n: number, p: number, M: Float64Array, inverse: Float64Array): number {
-  M.fill(0);
-  for (let i = 0; i < n; i++) {
-    const w = weights[i];
-    if (w === 0) continue;
-    const base = i * p;
-    for (let a = 0; a < p; a++) {
-      const wa = w * F[base + a];
-      if (wa === 0) continue;
-      for (let b = 0; b <= a; b++) M[a * p + b] += wa * F[base + b];
-    }
-  }
-  for (let a = 0; a < p; a++) for (let b = 0; b < a; b++) M[b * p + a] = M[a * p + b];
+  weightedCrossProduct(F, weights, n, p, M);
   return invertSymmetric(M, p, inverse);
 }
 
-/** d_i = f_i'M⁻¹f_i for every candidate (upper triangle only); returns the largest. */
+/** d_i = f_i'M⁻¹f_i for every candidate; returns the largest. */
 function variances(F: Float64Array, inverse: Float64Array, n: number, p: number, out: Float64Array): number {
   let largest = Number.NEGATIVE_INFINITY;
   for (let i = 0; i < n; i++) {
@@ -230,20 +221,6 @@ function variances(F: Float64Array, inverse: Float64Array, n: number, p: number,
     if (quadratic > largest) largest = quadratic;
   }
   return largest;
-}
-
-/** f'Af for symmetric A, f = F[offset .. offset + p), from the upper triangle. */
-function quadraticForm(A: Float64Array, p: number, F: ArrayLike<number>, offset: number): number {
-  let total = 0;
-  for (let a = 0; a < p; a++) {
-    const fa = F[offset + a];
-    if (fa === 0) continue;
-    const row = a * p;
-    let sum = 0.5 * A[row + a] * fa;
-    for (let b = a + 1; b < p; b++) sum += A[row + b] * F[offset + b];
-    total += fa * sum;
-  }
-  return 2 * total;
 }
 
 /**
@@ -268,17 +245,9 @@ function vertexExchange(
     if (k < 0 || variance[i] > variance[k]) k = i;
   }
   if (j < 0 || k < 0 || j === k) return;
-  for (let a = 0; a < p; a++) {
-    let sum = 0;
-    for (let b = 0; b < p; b++) sum += inverse[a * p + b] * F[j * p + b];
-    gj[a] = sum;
-  }
-  let djk = 0;
-  let dj = 0;
-  for (let a = 0; a < p; a++) {
-    djk += gj[a] * F[k * p + a];
-    dj += gj[a] * F[j * p + a];
-  }
+  multiplyInto(inverse, p, F, gj, j * p);
+  const djk = dot(gj, F, p, 0, k * p);
+  const dj = dot(gj, F, p, 0, j * p);
   const dk = quadraticForm(inverse, p, F, k * p);
   const curvature = 2 * (dj * dk - djk * djk);
   const rise = dk - dj;

@@ -4,7 +4,7 @@
  *
  * Trial scores (larger is better):
  * - D: the determinant ratio (1 + d(y))(1 − d(x)) + d(x,y)² (Fedorov, 1972, "Theory of
- *   Optimal Experiments", §3.1); see inverseUpdate.ts.
+ *   Optimal Experiments", §3.1); see ../linalg/inverseUpdate.ts.
  * - I: minus the change of trace(M⁻¹W). Adding y then removing x: with g = M⁻¹f,
  *   A1 = M⁻¹ − g_y g_y'/(1+d(y)), h = A1 f(x) = g_x − c g_y, c = d(x,y)/(1+d(y)),
  *   d1 = d(x) − c·d(x,y), and trace change −g_y'Wg_y/(1+d(y)) + h'Wh/(1 − d1)
@@ -15,9 +15,11 @@
  * costs ln ridge in the log-determinant); the ridge is dropped at the next refresh at which
  * X'X itself is nonsingular.
  */
-import { crossProduct, expandInto, type CompiledModel } from '../model/modelMatrix.js';
-import { invertSymmetric } from '../evaluate/cholesky.js';
-import { dot, exchangeRatio, exchangeUpdate, multiplyInto } from './inverseUpdate.js';
+import { expandInto, type CompiledModel } from '../model/modelMatrix.js';
+import { crossProduct } from '../linalg/crossProduct.js';
+import { invertSymmetric } from '../linalg/cholesky.js';
+import { exchangeRatio, exchangeUpdate } from '../linalg/inverseUpdate.js';
+import { dot, multiplyInto, traceOfProduct } from '../linalg/symmetricKernels.js';
 
 /** Relative ridge added to a singular X'X (times N). */
 const RIDGE = 1e-4;
@@ -134,16 +136,9 @@ export class ExchangeState {
    */
   score(rows: Float64Array, offset = 0): number {
     const { p, inverse, gy, gx } = this;
-    let dy = 0;
-    let dxy = 0;
-    for (let a = 0; a < p; a++) {
-      let sum = 0;
-      const base = a * p;
-      for (let b = 0; b < p; b++) sum += inverse[base + b] * rows[offset + b];
-      gy[a] = sum;
-      dy += rows[offset + a] * sum;
-      dxy += gx[a] * rows[offset + a];
-    }
+    multiplyInto(inverse, p, rows, gy, offset);
+    const dy = dot(rows, gy, p, offset);
+    const dxy = dot(gx, rows, p, 0, offset);
     if (this.activeCriterion === 'D') return exchangeRatio(this.dx, dy, dxy);
     multiplyInto(this.moments as Float64Array, p, gy, this.wgy);
     return this.traceScore(dy, dxy);
@@ -267,9 +262,6 @@ export class ExchangeState {
 
   private computeTrace(): number {
     if (this.moments === null) return Number.NaN;
-    const W = this.moments;
-    let trace = 0;
-    for (let i = 0; i < W.length; i++) trace += this.inverse[i] * W[i];
-    return trace;
+    return traceOfProduct(this.inverse, this.moments);
   }
 }

@@ -12,6 +12,8 @@
  * kept current after each exchange from its rank-two form, so a trial costs O(p) (only
  * d(x,c) is new) instead of O(p²).
  */
+import { exchangeRatio } from '../linalg/inverseUpdate.js';
+import { dot, quadraticForm } from '../linalg/symmetricKernels.js';
 import type { ExchangeState } from './exchangeState.js';
 
 export interface CandidateSet {
@@ -31,17 +33,7 @@ function determinantPass(state: ExchangeState, candidates: CandidateSet): number
   const { rows } = candidates;
   const n = candidates.points.length;
   const variance = new Float64Array(n);
-  for (let c = 0; c < n; c++) {
-    let quadratic = 0;
-    const offset = c * p;
-    for (let a = 0; a < p; a++) {
-      let sum = 0;
-      const base = a * p;
-      for (let b = 0; b < p; b++) sum += state.inverse[base + b] * rows[offset + b];
-      quadratic += rows[offset + a] * sum;
-    }
-    variance[c] = quadratic;
-  }
+  for (let c = 0; c < n; c++) variance[c] = quadraticForm(state.inverse, p, rows, c * p);
   let exchanges = 0;
   for (let i = 0; i < N; i++) {
     state.prepareRow(i);
@@ -50,10 +42,8 @@ function determinantPass(state: ExchangeState, candidates: CandidateSet): number
     let bestRatio = Number.NEGATIVE_INFINITY;
     let best = -1;
     for (let c = 0; c < n; c++) {
-      let dxy = 0;
-      const offset = c * p;
-      for (let a = 0; a < p; a++) dxy += gx[a] * rows[offset + a];
-      const ratio = (1 + variance[c]) * (1 - dx) + dxy * dxy;
+      const dxy = dot(gx, rows, p, 0, c * p);
+      const ratio = exchangeRatio(dx, variance[c], dxy);
       if (ratio > bestRatio) {
         bestRatio = ratio;
         best = c;
@@ -65,13 +55,8 @@ function determinantPass(state: ExchangeState, candidates: CandidateSet): number
     const { g, h, gScale, hScale } = state.lastUpdate;
     if (Number.isNaN(gScale)) return exchanges;
     for (let c = 0; c < n; c++) {
-      let gf = 0;
-      let hf = 0;
-      const offset = c * p;
-      for (let a = 0; a < p; a++) {
-        gf += g[a] * rows[offset + a];
-        hf += h[a] * rows[offset + a];
-      }
+      const gf = dot(g, rows, p, 0, c * p);
+      const hf = dot(h, rows, p, 0, c * p);
       variance[c] += hScale * hf * hf - gScale * gf * gf;
     }
   }

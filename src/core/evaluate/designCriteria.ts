@@ -11,7 +11,8 @@
  * A singular design gives logDetPerRun = −Infinity, dEfficiency = 0, iCriterion = Infinity.
  */
 import { informationMatrix, type CompiledModel } from '../model/modelMatrix.js';
-import { invertSymmetric } from './cholesky.js';
+import { invertSymmetric } from '../linalg/cholesky.js';
+import { traceOfProduct } from '../linalg/symmetricKernels.js';
 
 /** ln det(X'X / N) of the points under the model; −Infinity when X'X is singular. */
 export function logDetPerRun(model: CompiledModel, points: number[][]): number {
@@ -34,7 +35,5 @@ export function iCriterion(model: CompiledModel, points: number[][], moments: Fl
   if (invertSymmetric(informationMatrix(model, points), p, inverse) === Number.NEGATIVE_INFINITY) {
     return Number.POSITIVE_INFINITY;
   }
-  let trace = 0;
-  for (let i = 0; i < p * p; i++) trace += inverse[i] * moments[i];
-  return trace;
+  return traceOfProduct(inverse, moments);
 }

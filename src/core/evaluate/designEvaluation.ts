@@ -13,9 +13,11 @@
  * - G-efficiency: see gEfficiency.ts; power: see termPower.ts; VIF: varianceInflation.ts.
  * Only `points` are judged: pass the runs used for fitting (fit and centre runs).
  */
-import { crossProduct, modelMatrix, type CompiledModel } from '../model/modelMatrix.js';
+import { modelMatrix, type CompiledModel } from '../model/modelMatrix.js';
+import { crossProduct } from '../linalg/crossProduct.js';
 import type { CandidateRegion } from '../design/designTypes.js';
-import { choleskyFactor, choleskyInverse, choleskyLogDeterminant } from './cholesky.js';
+import { choleskyFactor, choleskyInverse, choleskyLogDeterminant } from '../linalg/cholesky.js';
+import { traceOfProduct } from '../linalg/symmetricKernels.js';
 import { estimability, type NonEstimableTerm } from './estimability.js';
 import { termPower, termRange } from './termPower.js';
 import { varianceInflationFactors } from './varianceInflation.js';
@@ -123,11 +125,8 @@ export function evaluateDesign(model: CompiledModel, points: number[][], options
   const logDet = choleskyLogDeterminant(L, p);
 
   let trace = 0;
-  let iCriterion = 0;
-  for (let a = 0; a < p; a++) {
-    trace += inverse[a * p + a];
-    for (let b = 0; b < p; b++) iCriterion += inverse[a * p + b] * options.moments[b * p + a];
-  }
+  for (let a = 0; a < p; a++) trace += inverse[a * p + a];
+  const iCriterion = traceOfProduct(inverse, options.moments);
 
   const interceptColumn = findIntercept(model);
   const vifs = varianceInflationFactors(X, N, p, interceptColumn);

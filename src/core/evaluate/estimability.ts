@@ -14,7 +14,7 @@
  * Surfaces", §10; Montgomery, 2017, "Design and Analysis of Experiments", 9th ed., §8.2).
  * Column j of A says which estimated terms absorb the dropped term j, and by how much.
  */
-import { symmetricInverse } from './cholesky.js';
+import { symmetricInverse } from '../linalg/cholesky.js';
 
 /** Relative residual norm at or below which a column counts as dependent (coded units, |x| ≤ ~1.7). */
 export const RANK_TOLERANCE = 1e-9;

@@ -15,6 +15,7 @@
  * quantile rule of numpy), so the value at 0.5 is the sample median.
  */
 import { expandInto, type CompiledModel } from '../model/modelMatrix.js';
+import { quadraticForm } from '../linalg/symmetricKernels.js';
 import type { CandidateRegion } from '../design/designTypes.js';
 import { haltonPoints } from './haltonPoints.js';
 
@@ -47,13 +48,7 @@ export function predictionVariances(model: CompiledModel, inverse: Float64Array,
   const out = new Float64Array(points.length);
   points.forEach((x, i) => {
     expandInto(model, x, f);
-    let quadratic = 0;
-    for (let a = 0; a < p; a++) {
-      let row = 0;
-      for (let b = 0; b < p; b++) row += inverse[a * p + b] * f[b];
-      quadratic += f[a] * row;
-    }
-    out[i] = quadratic;
+    out[i] = quadraticForm(inverse, p, f);
   });
   return out;
 }

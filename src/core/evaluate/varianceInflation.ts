@@ -7,7 +7,7 @@
  * non-intercept column, scale it to unit length, form the correlation matrix R, and read
  * VIF_j = (R⁻¹)_jj = 1 / (1 − R²_j). An orthogonal design gives 1 for every term.
  */
-import { symmetricInverse } from './cholesky.js';
+import { symmetricInverse } from '../linalg/cholesky.js';
 
 /**
  * VIF of each non-intercept column of the N × p row-major model matrix X (in column order,

@@ -6,6 +6,7 @@
  * Float64Array — the exchange searches call `expandInto` millions of times.
  */
 import type { ModelTerm } from './modelTerm.js';
+import { crossProduct } from '../linalg/crossProduct.js';
 
 export interface CompiledModel {
   /** Design factor ids, in coordinate order. */
@@ -66,18 +67,4 @@ export function modelMatrix(model: CompiledModel, points: readonly ArrayLike<num
 /** Information matrix X'X (p × p, row-major) of coded points. */
 export function informationMatrix(model: CompiledModel, points: readonly ArrayLike<number>[]): Float64Array {
   return crossProduct(modelMatrix(model, points), points.length, model.p);
-}
-
-/** X'X (p × p, row-major) of an N × p row-major matrix X, e.g. model rows already expanded. */
-export function crossProduct(X: ArrayLike<number>, N: number, p: number): Float64Array {
-  const M = new Float64Array(p * p);
-  for (let i = 0; i < N; i++) {
-    const base = i * p;
-    for (let a = 0; a < p; a++) {
-      const fa = X[base + a];
-      if (fa === 0) continue;
-      for (let b = 0; b < p; b++) M[a * p + b] += fa * X[base + b];
-    }
-  }
-  return M;
 }

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { boundForRegion, continuousDOptimal } from '../../../src/core/design/continuousBound.js';
 import { findExactDesign } from '../../../src/core/design/exactDesign.js';
 import { informationMatrix, modelMatrix } from '../../../src/core/model/modelMatrix.js';
-import { invertSymmetric } from '../../../src/core/evaluate/cholesky.js';
+import { invertSymmetric } from '../../../src/core/linalg/cholesky.js';
 import { firstOrderExponents, gridRegion, modelFromExponents, quadraticExponents, THREE_LEVELS } from './gridRegions.js';
 
 const square = gridRegion([THREE_LEVELS, THREE_LEVELS]).points as number[][];

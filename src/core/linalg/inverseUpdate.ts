@@ -1,6 +1,7 @@
 /**
- * Inverse and log-determinant of an information matrix M = X'X, kept current under row
- * changes by rank-one and rank-two updates instead of re-inverting.
+ * Inverse and log-determinant of an information matrix M = X'X, kept current when a design
+ * point is exchanged — a rank-two update made of two rank-one (Sherman–Morrison) steps —
+ * instead of re-inverting.
  *
  * Sources: the Sherman–Morrison formula (Sherman & Morrison, 1950, "Adjustment of an inverse
  * matrix corresponding to a change in one element of a given matrix", Ann. Math. Statist. 21)
@@ -10,52 +11,17 @@
  * d(x) = f(x)'M⁻¹f(x), d(y) likewise and d(x,y) = f(x)'M⁻¹f(y). (Written out:
  * 1 + [d(y) − d(x)] − [d(x)d(y) − d(x,y)²]; the bracket is subtracted once, not twice.)
  * The from-scratch inverse these updates start from (and are reset to) is
- * `invertSymmetric` in ../evaluate/cholesky.ts.
+ * `invertSymmetric` in cholesky.ts.
  *
  * Conventions: matrices are row-major p × p Float64Arrays, symmetric; the updates work in
  * place so the exchange searches allocate nothing per trial. Updates drift numerically;
  * callers re-invert from scratch periodically (after each full pass of a search).
  */
-
-/** out = A x for a p × p row-major A. */
-export function multiplyInto(A: Float64Array, p: number, x: ArrayLike<number>, out: Float64Array): void {
-  for (let i = 0; i < p; i++) {
-    let sum = 0;
-    const base = i * p;
-    for (let j = 0; j < p; j++) sum += A[base + j] * x[j];
-    out[i] = sum;
-  }
-}
-
-/** x · y over the first p entries. */
-export function dot(x: ArrayLike<number>, y: ArrayLike<number>, p: number): number {
-  let sum = 0;
-  for (let i = 0; i < p; i++) sum += x[i] * y[i];
-  return sum;
-}
+import { dot, multiplyInto } from './symmetricKernels.js';
 
 /** Determinant ratio det M_new / det M when design point x is replaced by y (Fedorov's delta + 1). */
 export function exchangeRatio(dx: number, dy: number, dxy: number): number {
   return (1 + dy) * (1 - dx) + dxy * dxy;
-}
-
-/**
- * Replaces M⁻¹ by (M + sign·f f')⁻¹ in place and returns the log-determinant change
- * ln(1 + sign·f'M⁻¹f), or NaN (inverse untouched) when the update would make M singular.
- * `work` (length p) receives M⁻¹f.
- */
-export function rankOneUpdate(inverse: Float64Array, p: number, f: ArrayLike<number>, sign: 1 | -1, work: Float64Array): number {
-  multiplyInto(inverse, p, f, work);
-  const factor = 1 + sign * dot(f, work, p);
-  if (!(factor > 1e-12)) return Number.NaN;
-  const scale = sign / factor;
-  for (let i = 0; i < p; i++) {
-    const gi = work[i] * scale;
-    if (gi === 0) continue;
-    const base = i * p;
-    for (let j = 0; j < p; j++) inverse[base + j] -= gi * work[j];
-  }
-  return Math.log(factor);
 }
 
 /**

@@ -10,7 +10,8 @@
  *
  * Singularity: a pivot at or below `pivotTolerance` times the largest diagonal entry counts
  * as singular. The default (1e-12) is only a guard for callers that have already checked the
- * rank of the model matrix; the exchange search passes a stricter one (see exchangeState.ts).
+ * rank of the model matrix; the exchange search passes a stricter one (see
+ * ../design/exchangeState.ts).
  */
 
 /** Default relative pivot floor: below it a matrix is treated as singular. */
