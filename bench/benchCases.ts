@@ -3,7 +3,7 @@
  * must handle, built directly in coded units (uncut boxes of evenly spaced levels).
  */
 import { compileModel, type CompiledModel } from '../src/core/model/modelMatrix.js';
-import type { CandidateRegion } from '../src/core/design/designTypes.js';
+import type { CandidateRegion } from '../src/core/region/candidateRegion.js';
 
 export interface BenchCase {
   name: string;

@@ -6,7 +6,7 @@
  * resolved every default. Core code never sees paths, only the data here.
  *
  * Units: factor bounds, limits, precision and explicit levels are in engineering units
- * (the factor's `unit`). Coded units map low → −1 and high → +1 (see `design/levels.ts`).
+ * (the factor's `unit`). Coded units map low → −1 and high → +1 (see `region/codedUnits.ts`).
  */
 
 export type FactorRole = 'operating' | 'model';

@@ -36,17 +36,12 @@ import {
 import { readIndexTable, readInteractionTable } from './indexTables.js';
 import { fileSystemProblem, parseJsonText, undecodableLine } from './tableRows.js';
 import { didYouMean } from '../core/suggestKey.js';
+import { RESERVED_WORDS } from '../core/region/constraintWords.js';
 
 export const STUDY_EXTENSIONS = ['.yaml', '.yml', '.json'] as const;
 
 /** Letter first, then letters, digits or underscores: usable in constraints and model terms. */
 const IDENTIFIER = /^[A-Za-z][A-Za-z0-9_]*$/;
-
-/** Words the constraint language (mathjs expressions) gives a meaning of its own. */
-const RESERVED_IDS = new Set([
-  'e', 'E', 'pi', 'PI', 'i', 'tau', 'phi', 'Infinity', 'NaN', 'true', 'false', 'null', 'undefined',
-  'and', 'or', 'not', 'xor', 'mod', 'to', 'in', 'end',
-]);
 
 // ------------------------------------------------------------------------------- schema
 
@@ -302,7 +297,7 @@ function checkStudyRules(data: StudyDocument, file: string): { study: CheckedStu
     if (!IDENTIFIER.test(id)) {
       fail(key, `"${id}" is not a usable id: start with a letter, then letters, digits or "_" (ids are written in constraints and model terms)`);
     }
-    if (RESERVED_IDS.has(id)) fail(key, `"${id}" is reserved in constraint expressions; choose another id`);
+    if (RESERVED_WORDS.has(id)) fail(key, `"${id}" is reserved in constraint expressions; choose another id`);
     const earlier = seen.get(id);
     if (earlier !== undefined) fail(key, `id "${id}" is already used by ${list}[${earlier}]; ids must be unique`);
   };

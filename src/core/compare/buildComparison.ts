@@ -20,11 +20,11 @@
  */
 import { InputError } from '../inputError.js';
 import type { PlanDocument } from '../plan/planDocument.js';
-import type { CandidateRegion } from '../design/designTypes.js';
+import type { CandidateRegion } from '../region/candidateRegion.js';
 import { compileModel, type CompiledModel } from '../model/modelMatrix.js';
 import { INTERCEPT_LABEL, termLabel } from '../model/modelTerm.js';
 import { parseTerm } from '../design/termSyntax.js';
-import { buildCandidateRegion } from '../design/candidateRegion.js';
+import { buildCandidateRegion } from '../region/candidateRegion.js';
 import { regionMoments } from '../evaluate/regionMoments.js';
 import { DEFAULT_ALPHA, DEFAULT_DELTA, evaluateDesign, type DesignEvaluation } from '../evaluate/designEvaluation.js';
 import { predictionSample } from '../evaluate/predictionVariance.js';

@@ -20,7 +20,7 @@
  * - Runs are counted as off limits when the region calls them infeasible (equipment limits or
  *   constraints) and as outside the range when a coded coordinate exceeds 1 in magnitude.
  */
-import type { CandidateRegion } from '../design/designTypes.js';
+import { ENUMERATION_LIMIT, type CandidateRegion } from '../region/candidateRegion.js';
 import type { Factor } from '../study.js';
 import type { ComparatorId } from './comparisonTypes.js';
 import { twoLevelFullFactorial } from '../classical/fullFactorial.js';
@@ -30,12 +30,10 @@ import { centralComposite } from '../classical/centralComposite.js';
 import { boxBehnken } from '../classical/boxBehnken.js';
 import { fullGrid } from '../classical/fullGrid.js';
 import { groupedLevelChanges } from './campaignCost.js';
-import { toEngineering } from '../design/levels.js';
+import { toEngineering } from '../region/codedUnits.js';
 
 /** Largest two-level cube (full factorial, conventional plan, composite cube) built point by point. */
 const MAX_CONVENTIONAL_FACTORS = 16;
-/** Largest full grid that is built and evaluated. */
-const MAX_GRID_RUNS = 250_000;
 
 export interface ComparatorContext {
   /** Varied (design) factor ids, in coordinate order. */
@@ -186,7 +184,8 @@ function grid(context: ComparatorContext): ComparatorDesign {
   const counts = context.plannedLevels.map((levels) => levels.length);
   const size = counts.reduce((a, b) => a * b, 1);
   const shape = counts.join('×');
-  if (size > MAX_GRID_RUNS) {
+  // The full grid is built point by point: no larger than a region enumerates.
+  if (size > ENUMERATION_LIMIT) {
     return unbuilt('full-grid', `Every combination of the planned levels (${shape})`, `${size} combinations is too large to build and evaluate`);
   }
   const all = fullGrid(context.plannedLevels);

@@ -17,11 +17,11 @@ import { uniformInt } from 'pure-rand/distribution/uniformInt';
 import { xoroshiro128plus } from 'pure-rand/generator/xoroshiro128plus';
 import { InputError } from '../inputError.js';
 import type { Factor } from '../study.js';
-import type { CandidateRegion, FactorLevels } from './designTypes.js';
-import { settableCoded, settableValue, toEngineering } from './levels.js';
-import { gridPoints } from './gridPoints.js';
-
-const ENUMERATE_LIMIT = 250_000;
+import type { FactorLevels } from './designTypes.js';
+import { ENUMERATION_LIMIT, type CandidateRegion } from '../region/candidateRegion.js';
+import { settableCoded, settableValue } from './levels.js';
+import { toEngineering } from '../region/codedUnits.js';
+import { gridPoints } from '../region/gridPoints.js';
 
 export interface CentrePointOptions {
   /** Seed of the search on fine grids too large to enumerate (default 1). */
@@ -69,7 +69,7 @@ export function centrePoint(
   let size = 1;
   for (const set of fine) size *= set.length;
 
-  const best = size <= ENUMERATE_LIMIT ? nearestByEnumeration(region, fine) : nearestBySearch(region, fine, options.seed ?? 1);
+  const best = size <= ENUMERATION_LIMIT ? nearestByEnumeration(region, fine) : nearestBySearch(region, fine, options.seed ?? 1);
   if (!best) {
     throw new InputError('no settable point near the centre satisfies the constraints; loosen a constraint', {
       key: 'constraints',

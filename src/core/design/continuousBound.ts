@@ -32,8 +32,8 @@ import { logDetPerRun } from '../evaluate/designCriteria.js';
 import { invertSymmetric } from '../linalg/cholesky.js';
 import { weightedCrossProduct } from '../linalg/crossProduct.js';
 import { dot, multiplyInto, quadraticForm } from '../linalg/symmetricKernels.js';
-import type { CandidateRegion } from './designTypes.js';
-import { forEachFeasibleGridPoint, randomFeasiblePoint } from './gridSampling.js';
+import type { CandidateRegion } from '../region/candidateRegion.js';
+import { forEachFeasibleGridPoint, randomFeasiblePoint } from '../region/gridSampling.js';
 
 export interface ContinuousBound {
   /** Weight of each candidate (sums to 1). */

@@ -11,7 +11,7 @@
  * only the model terms containing that factor, so a trial costs O(p·t) with t those terms.
  */
 import { expandInto, termValue, type CompiledModel } from '../model/modelMatrix.js';
-import type { CandidateRegion } from './designTypes.js';
+import type { CandidateRegion } from '../region/candidateRegion.js';
 import type { ExchangeState } from './exchangeState.js';
 
 /** Runs one pass; returns the number of exchanges made. */

@@ -20,12 +20,12 @@ import { InputError } from '../inputError.js';
 import { modelMatrix, type CompiledModel } from '../model/modelMatrix.js';
 import { regionMoments } from '../evaluate/regionMoments.js';
 import { dEfficiency, iCriterion, logDetPerRun } from '../evaluate/designCriteria.js';
-import type { CandidateRegion } from './designTypes.js';
+import type { CandidateRegion } from '../region/candidateRegion.js';
 import { ExchangeState } from './exchangeState.js';
 import { coordinateExchangePass } from './coordinateExchange.js';
 import { fedorovExchangePass, type CandidateSet } from './fedorovExchange.js';
-import { randomFeasiblePoint } from './gridSampling.js';
-import { checkRegionSupport } from './regionSupport.js';
+import { randomFeasiblePoint } from '../region/gridSampling.js';
+import { checkRegionSupport } from '../region/regionSupport.js';
 
 /** Largest N·n·p² (multiply-adds per point-exchange pass) for which the Fedorov pass is run. */
 const FEDOROV_BUDGET = 2e7;

@@ -18,12 +18,10 @@
 import { uniformInt } from 'pure-rand/distribution/uniformInt';
 import { xoroshiro128plus } from 'pure-rand/generator/xoroshiro128plus';
 import { InputError } from '../inputError.js';
-import type { CandidateRegion } from './designTypes.js';
-import type { RegionAxis } from './candidateRegion.js';
+import { ENUMERATION_LIMIT, type CandidateRegion, type RegionAxis } from '../region/candidateRegion.js';
 import { settableCoded } from './levels.js';
-import { gridPoints } from './gridPoints.js';
+import { gridPoints } from '../region/gridPoints.js';
 
-const ENUMERATE_LIMIT = 250_000;
 const SAMPLE_SIZE = 5000;
 const FACE_STEP = 1e-6;
 const EDGE = 1 - 1e-9;
@@ -75,7 +73,7 @@ export function chooseHoldoutRuns(
   const rng = xoroshiro128plus(seed);
   let size = 1;
   for (const set of interior) size *= set.length;
-  const raw = size <= ENUMERATE_LIMIT ? gridPoints(interior) : sample(interior, rng);
+  const raw = size <= ENUMERATION_LIMIT ? gridPoints(interior) : sample(interior, rng);
   const candidates: number[][] = [];
   for (const point of raw) if (region.isFeasible(point) && offFaces(region, point)) candidates.push(point);
   if (candidates.length < count && !options.atMost) {

@@ -11,7 +11,8 @@
  * total indices (Saltelli et al., 2008, *Global Sensitivity Analysis: The Primer*, ch. 4).
  *
  * Conventions fixed here:
- * - coded units: low → −1, high → +1, linear in between (`toCoded` / `toEngineering`);
+ * - coded units: low → −1, high → +1, linear in between (`toCoded` / `toEngineering` in
+ *   ../region/codedUnits.ts);
  * - levels are equally spaced over [low, high] in engineering units, rounded to the factor's
  *   precision (exact halves towards the middle of the range, see `settableValue`), and coded from the ROUNDED values (so a coded level may sit slightly off the
  *   equally spaced coded value — the coded value is what the lab will actually set);
@@ -23,20 +24,7 @@ import { InputError } from '../inputError.js';
 import type { DesignSettings, Factor } from '../study.js';
 import type { FactorTier, TierResult } from '../sensitivity/tierTypes.js';
 import type { FactorLevels } from './designTypes.js';
-
-/** Coded value of an engineering setting: low → −1, high → +1. */
-export function toCoded(factor: Pick<Factor, 'low' | 'high'>, value: number): number {
-  const half = (factor.high - factor.low) / 2;
-  const mid = (factor.high + factor.low) / 2;
-  return (value - mid) / half;
-}
-
-/** Engineering setting of a coded value (no rounding). */
-export function toEngineering(factor: Pick<Factor, 'low' | 'high'>, coded: number): number {
-  const half = (factor.high - factor.low) / 2;
-  const mid = (factor.high + factor.low) / 2;
-  return mid + coded * half;
-}
+import { toCoded, toEngineering } from '../region/codedUnits.js';
 
 /**
  * Rounds to the nearest multiple of `precision` (halves go up) and removes binary noise, so

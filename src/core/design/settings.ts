@@ -9,7 +9,8 @@
  */
 import type { Factor } from '../study.js';
 import type { FactorLevels } from './designTypes.js';
-import { roundToPrecision, settableValue, toEngineering } from './levels.js';
+import { roundToPrecision, settableValue } from './levels.js';
+import { toEngineering } from '../region/codedUnits.js';
 
 /**
  * Factor id → engineering setting for every operating factor in `levels` (in that order).

@@ -15,7 +15,7 @@
  */
 import { modelMatrix, type CompiledModel } from '../model/modelMatrix.js';
 import { crossProduct } from '../linalg/crossProduct.js';
-import type { CandidateRegion } from '../design/designTypes.js';
+import type { CandidateRegion } from '../region/candidateRegion.js';
 import { choleskyFactor, choleskyInverse, choleskyLogDeterminant } from '../linalg/cholesky.js';
 import { traceOfProduct } from '../linalg/symmetricKernels.js';
 import { estimability, type NonEstimableTerm } from './estimability.js';

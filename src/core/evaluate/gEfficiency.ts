@@ -12,8 +12,8 @@
  * upper bound on the true G-efficiency; the note says which set was used.
  */
 import type { CompiledModel } from '../model/modelMatrix.js';
-import type { CandidateRegion } from '../design/designTypes.js';
-import { gridPoints } from '../design/gridPoints.js';
+import type { CandidateRegion } from '../region/candidateRegion.js';
+import { gridPoints } from '../region/gridPoints.js';
 import { predictionVariances } from './predictionVariance.js';
 
 /** Largest candidate list searched point by point (each point costs p² operations). */

@@ -16,7 +16,7 @@
  */
 import { expandInto, type CompiledModel } from '../model/modelMatrix.js';
 import { quadraticForm } from '../linalg/symmetricKernels.js';
-import type { CandidateRegion } from '../design/designTypes.js';
+import type { CandidateRegion } from '../region/candidateRegion.js';
 import { haltonPoints } from './haltonPoints.js';
 
 export const PREDICTION_SAMPLE_SIZE = 4096;

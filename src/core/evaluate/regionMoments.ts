@@ -19,7 +19,7 @@
 import { xoroshiro128plus } from 'pure-rand/generator/xoroshiro128plus';
 import { uniformFloat64 } from 'pure-rand/distribution/uniformFloat64';
 import { expandInto, type CompiledModel } from '../model/modelMatrix.js';
-import type { CandidateRegion } from '../design/designTypes.js';
+import type { CandidateRegion } from '../region/candidateRegion.js';
 import { InputError } from '../inputError.js';
 import { boxMoments } from './cubeMoments.js';
 import { haltonBases, haltonUnitPoint } from './haltonPoints.js';

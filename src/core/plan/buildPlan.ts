@@ -13,7 +13,7 @@ import { InputError } from '../inputError.js';
 import { decideTiers } from '../sensitivity/decideTiers.js';
 import { planLevels } from '../design/levels.js';
 import { deriveModel } from '../design/modelFromTiers.js';
-import { buildCandidateRegion } from '../design/candidateRegion.js';
+import { buildCandidateRegion } from '../region/candidateRegion.js';
 import { centrePoint } from '../design/centreRuns.js';
 import { chooseHoldoutRuns, defaultHoldoutCount } from '../design/holdoutRuns.js';
 import { settingsFor } from '../design/settings.js';

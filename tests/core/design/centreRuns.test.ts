@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { buildCandidateRegion } from '../../../src/core/design/candidateRegion.js';
+import { buildCandidateRegion } from '../../../src/core/region/candidateRegion.js';
 import { centrePoint } from '../../../src/core/design/centreRuns.js';
 import { planLevels } from '../../../src/core/design/levels.js';
 import type { Factor } from '../../../src/core/study.js';

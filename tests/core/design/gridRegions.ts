@@ -3,7 +3,7 @@
  * units so the tests do not depend on the level and model stages.
  */
 import { compileModel, type CompiledModel } from '../../../src/core/model/modelMatrix.js';
-import type { CandidateRegion } from '../../../src/core/design/designTypes.js';
+import type { CandidateRegion } from '../../../src/core/region/candidateRegion.js';
 
 export function factorIds(k: number): string[] {
   return Array.from({ length: k }, (_, j) => `x${j + 1}`);

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { uniformInt } from 'pure-rand/distribution/uniformInt';
 import { xoroshiro128plus } from 'pure-rand/generator/xoroshiro128plus';
-import { buildCandidateRegion } from '../../../src/core/design/candidateRegion.js';
+import { buildCandidateRegion } from '../../../src/core/region/candidateRegion.js';
 import { chooseHoldoutRuns, defaultHoldoutCount } from '../../../src/core/design/holdoutRuns.js';
 import { planLevels } from '../../../src/core/design/levels.js';
 import { expectInputError } from '../../support/expectInputError.js';

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { planLevels, roundToPrecision, toCoded, toEngineering } from '../../../src/core/design/levels.js';
+import { planLevels, roundToPrecision } from '../../../src/core/design/levels.js';
 import { expectInputError } from '../../support/expectInputError.js';
 import type { Factor } from '../../../src/core/study.js';
 import { DEFAULT_DESIGN } from '../../../src/core/study.js';
@@ -11,20 +11,6 @@ const defaults = DEFAULT_DESIGN.levels;
 function withFactor(id: string, patch: Partial<Factor>): Factor[] {
   return sampleFactors().map((f) => (f.id === id ? { ...f, ...patch } : f));
 }
-
-describe('coding', () => {
-  // Coded units: low → −1, high → +1, linear (Montgomery, Design and Analysis of Experiments, 9th ed., ch. 6,
-  // coded variables; chapter from memory).
-  it('maps low to −1, high to +1 and the midpoint to 0', () => {
-    const f = { low: 160, high: 200 };
-    expect(toCoded(f, 160)).toBe(-1);
-    expect(toCoded(f, 200)).toBe(1);
-    expect(toCoded(f, 180)).toBe(0);
-    expect(toCoded(f, 173)).toBeCloseTo(-0.35, 12);
-    expect(toEngineering(f, 0.35)).toBeCloseTo(187, 12);
-    expect(toEngineering(f, toCoded(f, 166.5))).toBeCloseTo(166.5, 12);
-  });
-});
 
 describe('roundToPrecision', () => {
   it('rounds to multiples of the precision without binary noise', () => {

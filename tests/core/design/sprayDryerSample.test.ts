@@ -5,7 +5,7 @@
  * every expected value is the hand computation in sprayDryerFixture.ts.
  */
 import { describe, expect, it } from 'vitest';
-import { buildCandidateRegion } from '../../../src/core/design/candidateRegion.js';
+import { buildCandidateRegion } from '../../../src/core/region/candidateRegion.js';
 import { centrePoint } from '../../../src/core/design/centreRuns.js';
 import { chooseHoldoutRuns, defaultHoldoutCount } from '../../../src/core/design/holdoutRuns.js';
 import { planLevels } from '../../../src/core/design/levels.js';

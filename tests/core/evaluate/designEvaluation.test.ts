@@ -5,7 +5,7 @@ import fixture from '../../reference/evaluate/evaluate.json' with { type: 'json'
 import { compileModel } from '../../../src/core/model/modelMatrix.js';
 import { evaluateDesign } from '../../../src/core/evaluate/designEvaluation.js';
 import { cubeMoments } from '../../../src/core/evaluate/cubeMoments.js';
-import type { CandidateRegion } from '../../../src/core/design/designTypes.js';
+import type { CandidateRegion } from '../../../src/core/region/candidateRegion.js';
 
 const quadratic2 = compileModel(
   [{ powers: {} }, { powers: { a: 1 } }, { powers: { b: 1 } }, { powers: { a: 1, b: 1 } }, { powers: { a: 2 } }, { powers: { b: 2 } }],

@@ -9,7 +9,7 @@
  */
 import type { RandomGenerator } from 'pure-rand/types/RandomGenerator';
 import { uniformInt } from 'pure-rand/distribution/uniformInt';
-import type { CandidateRegion } from './designTypes.js';
+import type { CandidateRegion } from './candidateRegion.js';
 
 /** Rejection-sampling attempts per point before the region counts as (nearly) empty. */
 const ATTEMPTS = 2000;

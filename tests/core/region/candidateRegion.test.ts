@@ -1,10 +1,10 @@
 import { describe, expect, it } from 'vitest';
-import { buildCandidateRegion } from '../../../src/core/design/candidateRegion.js';
+import { buildCandidateRegion } from '../../../src/core/region/candidateRegion.js';
 import { planLevels } from '../../../src/core/design/levels.js';
 import { expectInputError } from '../../support/expectInputError.js';
 import type { Factor } from '../../../src/core/study.js';
 import { DEFAULT_DESIGN } from '../../../src/core/study.js';
-import { sampleConstraint, sampleFactors, sampleTiers } from './sprayDryerFixture.js';
+import { sampleConstraint, sampleFactors, sampleTiers } from '../design/sprayDryerFixture.js';
 
 function setup(patch: Record<string, Partial<Factor>> = {}) {
   const factors = sampleFactors().map((f) => ({ ...f, ...(patch[f.id] ?? {}) }));

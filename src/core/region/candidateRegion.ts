@@ -6,29 +6,58 @@
  * SAS*, ch. 12).
  *
  * Conventions fixed here:
- * - constraints are written over factor ids in ENGINEERING units and parsed and evaluated
- *   with mathjs (`feed_rate <= 0.2 * inlet_temp - 18`; `and`, `or`, `not`, chained
- *   comparisons such as `8 <= feed_rate <= 14` and mathjs functions like `sqrt` work). Each
- *   expression is compiled once. Fixed factors may appear, at their fixed setting; model
- *   parameters may not (they are not settings). Comparisons use mathjs' default relative
- *   tolerance (1e-12), so a grid point exactly on a boundary is not lost to binary noise;
+ * - coded units as in codedUnits.ts (low → −1, high → +1);
+ * - constraints are written over factor ids in ENGINEERING units in the language of
+ *   constraintLanguage.ts, each compiled once. Fixed factors may appear, at their fixed
+ *   setting; model parameters may not (they are not settings);
  * - `isFeasible` accepts any coded point, not only grid points: a coordinate within 1e-9 of
  *   a level is read as that level's rounded engineering setting, anything else is converted
  *   without rounding. It checks equipment limits and constraints but not the [−1, 1] box, so
  *   axial points of classical designs can be checked too;
- * - grids larger than `enumerateLimit` (default 250 000) are never enumerated: `points` is
- *   null and feasibility is only spot-checked on a seeded random sample of grid points.
+ * - grids larger than `ENUMERATION_LIMIT` (250 000 points; the one limit on grids that any
+ *   stage lists point by point) are never enumerated: `points` is null and feasibility is only
+ *   spot-checked on a seeded random sample of grid points.
  */
-import * as math from 'mathjs';
-import type { EvalFunction, MathNode } from 'mathjs';
 import { uniformInt } from 'pure-rand/distribution/uniformInt';
 import { xoroshiro128plus } from 'pure-rand/generator/xoroshiro128plus';
 import { InputError } from '../inputError.js';
 import type { Factor } from '../study.js';
-import type { CandidateRegion, FactorLevels } from './designTypes.js';
-import { toEngineering } from './levels.js';
-import { didYouMean } from '../suggestKey.js';
+import { toEngineering } from './codedUnits.js';
 import { gridPoints } from './gridPoints.js';
+import { compileConstraint, constraintHolds } from './constraintLanguage.js';
+
+/** Largest grid that is listed point by point: the region's `points`, centre and holdout candidates, the full-grid comparator. */
+export const ENUMERATION_LIMIT = 250_000;
+
+/**
+ * Where design points may go: a grid of coded levels per design factor, cut by constraints
+ * and equipment limits. Large grids are never enumerated; `points` is null for them and the
+ * search works factor by factor through `levels` and `isFeasible`.
+ */
+export interface CandidateRegion {
+  factorIds: string[];
+  /** Coded level values of each design factor, ascending. */
+  levels: number[][];
+  /** True when the coded point satisfies every constraint and equipment limit. */
+  isFeasible(coded: ArrayLike<number>): boolean;
+  /** Size of the full grid (product of level counts). */
+  gridSize: number;
+  /** Every feasible grid point, when the grid is small enough to enumerate; else null. */
+  points: number[][] | null;
+}
+
+/** What the region reads of one operating factor's levels (the levels stage adds the why). */
+export interface AxisLevels {
+  id: string;
+  /** Varied in the plan (critical or moderate operating factor), or fixed. */
+  varied: boolean;
+  /** Level settings in engineering units, rounded to the factor's precision (empty when fixed). */
+  values: number[];
+  /** The same levels in coded units. */
+  coded: number[];
+  /** The engineering setting a fixed factor is held at (its nominal), else null. */
+  fixedAt: number | null;
+}
 
 /** One design factor of the region, with what is needed to turn coded values into settable ones. */
 export interface RegionAxis {
@@ -47,7 +76,7 @@ export interface SettableRegion extends CandidateRegion {
 }
 
 export interface CandidateRegionOptions {
-  /** Largest grid that is enumerated into `points` (default 250 000). */
+  /** Largest grid that is enumerated into `points` (default ENUMERATION_LIMIT). */
   enumerateLimit?: number;
   /** Seed of the spot check of large grids (default 1). */
   seed?: number;
@@ -55,17 +84,15 @@ export interface CandidateRegionOptions {
   sampleSize?: number;
 }
 
-const DEFAULT_ENUMERATE_LIMIT = 250_000;
 const SNAP = 1e-9;
-const CONSTANTS = new Set(['pi', 'e', 'true', 'false', 'Infinity', 'PI', 'E']);
 
 export function buildCandidateRegion(
   factors: Factor[],
-  levels: FactorLevels[],
+  levels: AxisLevels[],
   constraints: string[],
   options: CandidateRegionOptions = {},
 ): SettableRegion {
-  const enumerateLimit = options.enumerateLimit ?? DEFAULT_ENUMERATE_LIMIT;
+  const enumerateLimit = options.enumerateLimit ?? ENUMERATION_LIMIT;
   const factorOf = new Map(factors.map((f) => [f.id, f]));
   const varied = levels.filter((l) => l.varied);
   const axes: RegionAxis[] = varied.map((l) => {
@@ -86,22 +113,14 @@ export function buildCandidateRegion(
 
   const scope = new Map<string, unknown>();
   for (const l of levels) if (!l.varied && l.fixedAt !== null) scope.set(l.id, l.fixedAt);
-  const compiled = constraints.map((text, i) => compileConstraint(text, i, factors, levels));
+  const operatingIds = levels.map((l) => l.id);
+  const modelParameterIds = new Set(factors.filter((f) => f.role === 'model').map((f) => f.id));
+  const compiled = constraints.map((text, i) => compileConstraint(text, i, operatingIds, modelParameterIds));
 
   const engineering = new Float64Array(k);
   const evaluateAll = (): boolean => {
     for (let j = 0; j < k; j++) scope.set(axes[j].id, engineering[j]);
-    for (let c = 0; c < compiled.length; c++) {
-      const result = runConstraint(compiled[c], scope, constraints[c], c);
-      if (typeof result !== 'boolean') {
-        throw new InputError(
-          `constraint "${constraints[c]}" does not yield true or false (got ${math.format(result as never, { precision: 6 })}); ` +
-            'write a comparison such as a <= b',
-          { key: `constraints[${c}]` },
-        );
-      }
-      if (!result) return false;
-    }
+    for (let c = 0; c < compiled.length; c++) if (!constraintHolds(compiled[c], scope)) return false;
     return true;
   };
 
@@ -164,47 +183,4 @@ export function buildCandidateRegion(
   }
 
   return { factorIds: axes.map((a) => a.id), levels: levelSets, isFeasible, gridSize, points, axes };
-}
-
-function compileConstraint(text: string, i: number, factors: Factor[], levels: FactorLevels[]): EvalFunction {
-  const key = `constraints[${i}]`;
-  let node: MathNode;
-  try {
-    node = math.parse(text);
-  } catch (error) {
-    throw new InputError(`cannot read constraint "${text}": ${(error as Error).message}`, { key });
-  }
-  const operating = levels.map((l) => l.id);
-  const modelParams = new Set(factors.filter((f) => f.role === 'model').map((f) => f.id));
-  node.traverse((n, path, parent) => {
-    if (n.type === 'AssignmentNode' || n.type === 'FunctionAssignmentNode') {
-      throw new InputError(`constraint "${text}" assigns a value; compare with ==, <= or >= instead of =`, { key });
-    }
-    if (n.type !== 'SymbolNode') return;
-    const name = (n as math.SymbolNode).name;
-    if (parent && parent.type === 'FunctionNode' && path === 'fn') {
-      if (typeof (math as unknown as Record<string, unknown>)[name] !== 'function') {
-        throw new InputError(`constraint "${text}" calls an unknown function ${name}`, { key });
-      }
-      return;
-    }
-    if (operating.includes(name) || CONSTANTS.has(name)) return;
-    if (modelParams.has(name)) {
-      throw new InputError(
-        `constraint "${text}" uses ${name}, a model parameter; constraints may only use operating settings`,
-        { key },
-      );
-    }
-    throw new InputError(`constraint "${text}" uses an unknown name "${name}"${didYouMean(name, operating)}`, { key });
-  });
-  return node.compile();
-}
-
-function runConstraint(fn: EvalFunction, scope: Map<string, unknown>, text: string, c: number): unknown {
-  try {
-    return fn.evaluate(scope);
-  } catch (error) {
-    if (error instanceof InputError) throw error;
-    throw new InputError(`cannot evaluate constraint "${text}": ${(error as Error).message}`, { key: `constraints[${c}]` });
-  }
 }

@@ -17,7 +17,7 @@
  */
 import { InputError } from '../inputError.js';
 import type { CompiledModel } from '../model/modelMatrix.js';
-import type { CandidateRegion } from './designTypes.js';
+import type { CandidateRegion } from './candidateRegion.js';
 
 /** Largest (pairs × feasible points) visited by the two-factor check. */
 const PAIR_CHECK_BUDGET = 5e6;
