@@ -21,7 +21,7 @@ import { dirname, extname, isAbsolute, join, resolve } from 'node:path';
 import { LineCounter, parseDocument } from 'yaml';
 import { z } from 'zod';
 import { InputError } from '../core/inputError.js';
-import { parseTerm } from '../core/design/termSyntax.js';
+import { parseTerm } from '../core/model/termSyntax.js';
 import {
   DEFAULT_DESIGN,
   DEFAULT_POLICY,

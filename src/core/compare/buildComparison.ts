@@ -23,7 +23,7 @@ import type { PlanDocument } from '../plan/planDocument.js';
 import type { CandidateRegion } from '../region/candidateRegion.js';
 import { compileModel, type CompiledModel } from '../model/modelMatrix.js';
 import { INTERCEPT_LABEL, termLabel } from '../model/modelTerm.js';
-import { parseTerm } from '../design/termSyntax.js';
+import { parseTerm } from '../model/termSyntax.js';
 import { buildCandidateRegion } from '../region/candidateRegion.js';
 import { regionMoments } from '../evaluate/regionMoments.js';
 import { DEFAULT_ALPHA, DEFAULT_DELTA, evaluateDesign, type DesignEvaluation } from '../evaluate/designEvaluation.js';

@@ -14,7 +14,6 @@
  * enumerate, a seeded random sample followed by coordinate descent (common practice).
  */
 import { uniformInt } from 'pure-rand/distribution/uniformInt';
-import { xoroshiro128plus } from 'pure-rand/generator/xoroshiro128plus';
 import { InputError } from '../inputError.js';
 import type { Factor } from '../study.js';
 import type { FactorLevels } from './designTypes.js';
@@ -22,6 +21,7 @@ import { ENUMERATION_LIMIT, type CandidateRegion } from '../region/candidateRegi
 import { settableCoded, settableValue } from './levels.js';
 import { toEngineering } from '../region/codedUnits.js';
 import { gridPoints } from '../region/gridPoints.js';
+import { createRandom } from '../random.js';
 
 export interface CentrePointOptions {
   /** Seed of the search on fine grids too large to enumerate (default 1). */
@@ -116,7 +116,7 @@ function nearestByEnumeration(region: CandidateRegion, fine: number[][]): number
 /** Seeded random sample of the fine grid, then coordinate descent towards coded 0. */
 function nearestBySearch(region: CandidateRegion, fine: number[][], seed: number): number[] | null {
   const k = fine.length;
-  const rng = xoroshiro128plus(seed);
+  const rng = createRandom(seed);
   let best: number[] | null = null;
   let bestNorm = Infinity;
   const point = new Array<number>(k);

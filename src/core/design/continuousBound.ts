@@ -23,10 +23,8 @@
  * Conventions: M(w) = Σ w_i f_i f_i' with Σ w_i = 1, so ln det M is comparable with the exact
  * plan's ln det(X'X/N) (`logDetPerRun`); all points in coded units.
  */
-import { xoroshiro128plus } from 'pure-rand/generator/xoroshiro128plus';
 import { uniformFloat64 } from 'pure-rand/distribution/uniformFloat64';
 import { uniformInt } from 'pure-rand/distribution/uniformInt';
-import type { RandomGenerator } from 'pure-rand/types/RandomGenerator';
 import { expandInto, modelMatrix, type CompiledModel } from '../model/modelMatrix.js';
 import { logDetPerRun } from '../evaluate/designCriteria.js';
 import { invertSymmetric } from '../linalg/cholesky.js';
@@ -34,6 +32,7 @@ import { weightedCrossProduct } from '../linalg/crossProduct.js';
 import { dot, multiplyInto, quadraticForm } from '../linalg/symmetricKernels.js';
 import type { CandidateRegion } from '../region/candidateRegion.js';
 import { forEachFeasibleGridPoint, randomFeasiblePoint } from '../region/gridSampling.js';
+import { createRandom, type RandomGenerator } from '../random.js';
 
 export interface ContinuousBound {
   /** Weight of each candidate (sums to 1). */
@@ -273,7 +272,7 @@ function sampleCandidates(region: CandidateRegion, exactPoints: number[][], size
     chosen.push(Array.from(point));
   };
   exactPoints.forEach(add);
-  const rng = xoroshiro128plus(seed);
+  const rng = createRandom(seed);
   const k = region.levels.length;
   const point = new Float64Array(k);
   for (let attempt = 0; attempt < 5 * size && chosen.length < size + exactPoints.length; attempt++) {

@@ -9,13 +9,12 @@
  * Technometrics 22), until a full pass changes nothing. (X'X)⁻¹ is re-inverted after every
  * pass to stop drift of the rank-one/rank-two updates. The best start wins; ties go to the
  * earlier start. An enumerated region that certainly cannot support the model is refused
- * first, with its cause (regionSupport.ts).
+ * first, with its cause (../region/regionSupport.ts).
  *
- * Determinism: start s draws from the seeded xoroshiro128+ stream jumped s times (pure-rand),
+ * Determinism: start s draws from the seeded stream of ../random.ts jumped s times,
  * so starts are independent streams and the same seed gives the same plan. The returned
  * points are sorted lexicographically (the run order is randomised later).
  */
-import { xoroshiro128plus } from 'pure-rand/generator/xoroshiro128plus';
 import { InputError } from '../inputError.js';
 import { modelMatrix, type CompiledModel } from '../model/modelMatrix.js';
 import { regionMoments } from '../evaluate/regionMoments.js';
@@ -26,6 +25,7 @@ import { coordinateExchangePass } from './coordinateExchange.js';
 import { fedorovExchangePass, type CandidateSet } from './fedorovExchange.js';
 import { randomFeasiblePoint } from '../region/gridSampling.js';
 import { checkRegionSupport } from '../region/regionSupport.js';
+import { createRandom } from '../random.js';
 
 /** Largest N·n·p² (multiply-adds per point-exchange pass) for which the Fedorov pass is run. */
 const FEDOROV_BUDGET = 2e7;
@@ -82,7 +82,7 @@ export function findExactDesign(request: ExactDesignRequest): ExactDesignResult 
   let moments = request.moments ?? null;
   const searchMoments = () => (moments ??= regionMoments(model, region, seed).matrix);
 
-  const stream = xoroshiro128plus(seed);
+  const stream = createRandom(seed);
   const perStart: number[] = [];
   let best: Float64Array | null = null;
   let bestObjective = Number.NEGATIVE_INFINITY;

@@ -10,17 +10,17 @@
  * and centre runs) and to the holdouts already chosen: the maximin distance criterion of
  * Johnson, Moore & Ylvisaker (1990), "Minimax and maximin distance designs", J. Statist.
  * Plann. Inference 26, 131–148, applied one point at a time. Ties are broken by a seeded
- * pure-rand generator, so the same seed gives the same holdouts.
+ * generator (../random.ts), so the same seed gives the same holdouts.
  *
  * Holding out about 20 % of the runs for validation is common practice; at least 2 so that
  * one odd run does not decide whether the model is trusted.
  */
 import { uniformInt } from 'pure-rand/distribution/uniformInt';
-import { xoroshiro128plus } from 'pure-rand/generator/xoroshiro128plus';
 import { InputError } from '../inputError.js';
 import { ENUMERATION_LIMIT, type CandidateRegion, type RegionAxis } from '../region/candidateRegion.js';
 import { settableCoded } from './levels.js';
 import { gridPoints } from '../region/gridPoints.js';
+import { createRandom, type RandomGenerator } from '../random.js';
 
 const SAMPLE_SIZE = 5000;
 const FACE_STEP = 1e-6;
@@ -70,7 +70,7 @@ export function chooseHoldoutRuns(
     });
   }
 
-  const rng = xoroshiro128plus(seed);
+  const rng = createRandom(seed);
   let size = 1;
   for (const set of interior) size *= set.length;
   const raw = size <= ENUMERATION_LIMIT ? gridPoints(interior) : sample(interior, rng);
@@ -139,7 +139,7 @@ function offFaces(region: CandidateRegion, point: number[]): boolean {
 }
 
 /** Seeded draw of distinct grid points, for grids too large to enumerate. */
-function sample(sets: number[][], rng: ReturnType<typeof xoroshiro128plus>): number[][] {
+function sample(sets: number[][], rng: RandomGenerator): number[][] {
   const seen = new Set<string>();
   const out: number[][] = [];
   for (let s = 0; s < SAMPLE_SIZE; s++) {

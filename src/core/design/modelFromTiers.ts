@@ -32,7 +32,7 @@ import { termLabel } from '../model/modelTerm.js';
 import type { FactorTier, TierResult } from '../sensitivity/tierTypes.js';
 import type { FactorLevels } from './designTypes.js';
 import { roundToPrecision } from './levels.js';
-import { parseTerm } from './termSyntax.js';
+import { parseTerm } from '../model/termSyntax.js';
 
 export interface DerivedModel {
   terms: ModelTerm[];

@@ -16,13 +16,13 @@
  * The box counts as uncut when the enumerated feasible grid is the whole grid, or — for grids
  * too large to enumerate — when every quasi-random test point is feasible.
  */
-import { xoroshiro128plus } from 'pure-rand/generator/xoroshiro128plus';
 import { uniformFloat64 } from 'pure-rand/distribution/uniformFloat64';
 import { expandInto, type CompiledModel } from '../model/modelMatrix.js';
 import type { CandidateRegion } from '../region/candidateRegion.js';
 import { InputError } from '../inputError.js';
 import { boxMoments } from './cubeMoments.js';
 import { haltonBases, haltonUnitPoint } from './haltonPoints.js';
+import { createRandom } from '../random.js';
 
 /** Feasible quasi-random points averaged for a cut region. */
 const QMC_POINTS = 8192;
@@ -42,7 +42,7 @@ export function regionMoments(model: CompiledModel, region: CandidateRegion, see
   const sum = new Float64Array(p * p);
   const f = new Float64Array(p);
   const x = new Float64Array(k);
-  const rng = xoroshiro128plus(seed);
+  const rng = createRandom(seed);
   const shift = Array.from({ length: k }, () => uniformFloat64(rng));
   const bases = haltonBases(k);
   const u = new Float64Array(k);

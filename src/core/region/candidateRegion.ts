@@ -19,12 +19,12 @@
  *   spot-checked on a seeded random sample of grid points.
  */
 import { uniformInt } from 'pure-rand/distribution/uniformInt';
-import { xoroshiro128plus } from 'pure-rand/generator/xoroshiro128plus';
 import { InputError } from '../inputError.js';
 import type { Factor } from '../study.js';
 import { toEngineering } from './codedUnits.js';
 import { gridPoints } from './gridPoints.js';
 import { compileConstraint, constraintHolds } from './constraintLanguage.js';
+import { createRandom } from '../random.js';
 
 /** Largest grid that is listed point by point: the region's `points`, centre and holdout candidates, the full-grid comparator. */
 export const ENUMERATION_LIMIT = 250_000;
@@ -166,7 +166,7 @@ export function buildCandidateRegion(
       );
     }
   } else {
-    const rng = xoroshiro128plus(options.seed ?? 1);
+    const rng = createRandom(options.seed ?? 1);
     const draws = options.sampleSize ?? 4000;
     const point = new Array<number>(k);
     let found = false;

@@ -7,7 +7,7 @@
  * grid in lexicographic order, skipping infeasible points, so a grid too large to store can
  * still be scanned once.
  */
-import type { RandomGenerator } from 'pure-rand/types/RandomGenerator';
+import type { RandomGenerator } from '../random.js';
 import { uniformInt } from 'pure-rand/distribution/uniformInt';
 import type { CandidateRegion } from './candidateRegion.js';
 

@@ -23,7 +23,8 @@
  *   With one such factor, grouping reaches the minimum: (distinct settings − 1).
  */
 import { spreadSlots } from './centreSpread.js';
-import { shuffled, type RandomGenerator } from './randomOrder.js';
+import { shuffled } from './randomOrder.js';
+import type { RandomGenerator } from '../random.js';
 
 export interface GroupableRun {
   point: string;

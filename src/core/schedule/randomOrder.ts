@@ -7,28 +7,10 @@
  * likely when the integer draws are uniform; pure-rand's `uniformInt` rejects rather than
  * folds, so they are.
  *
- * Generator: xoroshiro128+ from pure-rand, seeded from the plan's seed. The same seed gives the
- * same stream on every platform, which is what makes a run sheet reproducible.
+ * Generator: the plan's seeded stream (../random.ts).
  */
-import { xoroshiro128plus } from 'pure-rand/generator/xoroshiro128plus';
 import { uniformInt } from 'pure-rand/distribution/uniformInt';
-import type { RandomGenerator } from 'pure-rand/types/RandomGenerator';
-import { InputError } from '../inputError.js';
-
-export type { RandomGenerator };
-
-/**
- * A generator for `seed`. pure-rand takes a 32-bit seed, so the high part of larger integer
- * seeds is folded in rather than dropped: seeds 1 and 2^32 + 1 still give different streams.
- */
-export function createRandom(seed: number): RandomGenerator {
-  if (!Number.isSafeInteger(seed)) {
-    throw new InputError(`the seed must be a whole number below 2^53, not ${seed}`, { key: 'design.seed' });
-  }
-  const low = seed | 0;
-  const high = Math.floor(seed / 0x1_0000_0000) | 0;
-  return xoroshiro128plus(high === 0 ? low : (low ^ Math.imul(high, 0x9e3779b1)) | 0);
-}
+import type { RandomGenerator } from '../random.js';
 
 /** A shuffled copy of `items` (the input is left untouched). */
 export function shuffled<T>(items: readonly T[], rng: RandomGenerator): T[] {

@@ -16,7 +16,7 @@
  */
 import type { PlanDocument } from '../plan/planDocument.js';
 import type { Schedule, ScheduledRun } from './scheduleTypes.js';
-import { createRandom } from './randomOrder.js';
+import { createRandom } from '../random.js';
 import { cutIntoSessions, equalSessionSizes, sessionCountFor } from './sessionPlan.js';
 import {
   countLevelChanges,

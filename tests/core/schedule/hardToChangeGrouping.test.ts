@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { countLevelChanges, groupByHardToChange } from '../../../src/core/schedule/hardToChangeGrouping.js';
-import { createRandom } from '../../../src/core/schedule/randomOrder.js';
+import { createRandom } from '../../../src/core/random.js';
 import { sprayDryerPlan } from '../../fixtures/plan/sprayDryerPlan.js';
 
 describe('level change count', () => {

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { parseTerm } from '../../../src/core/design/termSyntax.js';
+import { parseTerm } from '../../../src/core/model/termSyntax.js';
 import { termLabel } from '../../../src/core/model/modelTerm.js';
 import { expectInputError } from '../../support/expectInputError.js';
 
