@@ -19,7 +19,9 @@
  *   from grouped order as for the comparators (campaignCost.ts).
  */
 import { InputError } from '../inputError.js';
-import type { PlanDocument } from '../plan/planDocument.js';
+import type { Study } from '../study.js';
+import type { FactorLevels, PlannedRun } from '../design/designTypes.js';
+import type { Schedule } from '../schedule/scheduleTypes.js';
 import type { CandidateRegion } from '../region/candidateRegion.js';
 import { compileModel, type CompiledModel } from '../model/modelMatrix.js';
 import { INTERCEPT_LABEL, termLabel } from '../model/modelTerm.js';
@@ -40,7 +42,16 @@ export interface ComparisonOptions {
   alpha?: number;
 }
 
-export function buildComparison(plan: PlanDocument, options: ComparisonOptions = {}): Comparison {
+/** What the comparison reads of a plan (a PlanDocument is one; the plan stage depends on this one, not back). */
+export interface ComparisonInput {
+  study: Omit<Study, 'warnings'>;
+  levels: FactorLevels[];
+  model: { terms: string[] };
+  runs: PlannedRun[];
+  schedule?: Pick<Schedule, 'hardToChange'>;
+}
+
+export function buildComparison(plan: ComparisonInput, options: ComparisonOptions = {}): Comparison {
   const delta = options.delta ?? DEFAULT_DELTA;
   const alpha = options.alpha ?? DEFAULT_ALPHA;
   if (!(delta > 0) || !Number.isFinite(delta)) throw new InputError(`the effect size must be a positive number of σ, got ${delta}`, { key: 'delta' });
@@ -201,7 +212,7 @@ function powerConvention(delta: number, alpha: number): string {
  * too; undefined when no run of that grid satisfies the constraints (then the conventional
  * plan is checked on its projection onto the varied factors only).
  */
-function allOperatingRegion(plan: PlanDocument): CandidateRegion | undefined {
+function allOperatingRegion(plan: ComparisonInput): CandidateRegion | undefined {
   const levelOf = new Map(plan.levels.map((level) => [level.id, level]));
   const levels = plan.study.factors
     .filter((factor) => factor.role === 'operating')

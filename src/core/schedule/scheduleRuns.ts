@@ -14,7 +14,8 @@
  *    up to GROUP_ORDER_TRIES random group orders are drawn and the first one that can be cut into
  *    sessions without splitting a group is kept (else the one splitting fewest).
  */
-import type { PlanDocument } from '../plan/planDocument.js';
+import type { Study } from '../study.js';
+import type { FactorLevels, PlannedRun } from '../design/designTypes.js';
 import type { Schedule, ScheduledRun } from './scheduleTypes.js';
 import { createRandom } from '../random.js';
 import { cutIntoSessions, equalSessionSizes, sessionCountFor } from './sessionPlan.js';
@@ -31,7 +32,14 @@ import { wordList } from '../wordList.js';
 const GROUP_ORDER_TRIES = 64;
 const DEFAULT_SESSION_LABEL = 'Session';
 
-export function scheduleRuns(plan: Pick<PlanDocument, 'runs' | 'levels' | 'study'>, seed: number): Schedule {
+/** What the run order reads of a plan (a PlanDocument is one; the plan stage depends on this one, not back). */
+export interface SchedulingInput {
+  runs: PlannedRun[];
+  levels: FactorLevels[];
+  study: Pick<Study, 'factors' | 'sessions'>;
+}
+
+export function scheduleRuns(plan: SchedulingInput, seed: number): Schedule {
   const rng = createRandom(seed);
   const runs: GroupableRun[] = plan.runs.map((run) => ({ point: run.point, purpose: run.purpose, settings: run.settings }));
   const n = runs.length;
