@@ -6,7 +6,7 @@ import { isAbsolute, relative, resolve } from 'node:path';
 import type { Command } from 'commander';
 import { InputError } from '../core/inputError.js';
 import type { PlanDocument } from '../core/plan/planDocument.js';
-import type { Study } from '../core/study.js';
+import { isCriterion, type Study } from '../core/study.js';
 import { loadStudy } from '../io/studyFile.js';
 import { planJson, sealPlan } from '../io/planFile.js';
 import { toolVersion } from '../io/toolVersion.js';
@@ -119,7 +119,7 @@ function applyOverrides(study: Study, options: PlanOptions): Study {
   if (options.runs !== undefined) design.runs = options.runs === 'auto' ? 'auto' : integerOption('--runs', options.runs, 1);
   if (options.criterion !== undefined) {
     const criterion = options.criterion.toUpperCase();
-    if (criterion !== 'D' && criterion !== 'I') throw new InputError(`--criterion must be D or I, not ${options.criterion}`);
+    if (!isCriterion(criterion)) throw new InputError(`--criterion must be D or I, not ${options.criterion}`);
     design.criterion = criterion;
   }
   return { ...study, design };

@@ -7,7 +7,16 @@ import { dirname, resolve } from 'node:path';
 import type { Command } from 'commander';
 import { InputError } from '../core/inputError.js';
 import { decideTiers } from '../core/sensitivity/decideTiers.js';
-import type { AggregateRule, ConfidencePolicy, Study, TierPolicy } from '../core/study.js';
+import {
+  AGGREGATE_RULES,
+  CONFIDENCE_POLICIES,
+  cutOffsInOrder,
+  isCutOff,
+  type AggregateRule,
+  type ConfidencePolicy,
+  type Study,
+  type TierPolicy,
+} from '../core/study.js';
 import { loadStudy } from '../io/studyFile.js';
 import { painterFor } from '../io/terminalStyle.js';
 import { tierDocument, tierExportFormat, writeTierExport } from '../io/tierExport.js';
@@ -23,9 +32,6 @@ interface TiersOptions {
   interaction?: string;
   confidence?: string;
 }
-
-const AGGREGATES: readonly AggregateRule[] = ['mean', 'max', 'weighted'];
-const CONFIDENCES: readonly ConfidencePolicy[] = ['point', 'upper'];
 
 export function registerTiers(program: Command): void {
   program
@@ -70,13 +76,13 @@ export function registerTiers(program: Command): void {
 function parseOverrides(options: TiersOptions): Partial<TierPolicy> {
   const overrides: Partial<TierPolicy> = {};
   if (options.aggregate !== undefined) {
-    if (!(AGGREGATES as readonly string[]).includes(options.aggregate)) {
+    if (!(AGGREGATE_RULES as readonly string[]).includes(options.aggregate)) {
       throw new InputError(`--aggregate must be mean, max or weighted, not "${options.aggregate}"`);
     }
     overrides.aggregate = options.aggregate as AggregateRule;
   }
   if (options.confidence !== undefined) {
-    if (!(CONFIDENCES as readonly string[]).includes(options.confidence)) {
+    if (!(CONFIDENCE_POLICIES as readonly string[]).includes(options.confidence)) {
       throw new InputError(`--confidence must be point or upper, not "${options.confidence}"`);
     }
     overrides.confidence = options.confidence as ConfidencePolicy;
@@ -90,7 +96,7 @@ function parseOverrides(options: TiersOptions): Partial<TierPolicy> {
 /** A cut-off on the same terms as the study's `policy` keys: strictly between 0 and 1. */
 function fraction(name: string, text: string): number {
   const value = optionNumber(text);
-  if (!(value > 0 && value < 1)) {
+  if (!isCutOff(value)) {
     throw new InputError(`${name} must be a number strictly between 0 and 1 (such as 0.3), not "${text}"`);
   }
   return value;
@@ -98,7 +104,7 @@ function fraction(name: string, text: string): number {
 
 function mergePolicy(fromStudy: TierPolicy, overrides: Partial<TierPolicy>): TierPolicy {
   const policy = { ...fromStudy, ...overrides };
-  if (!(policy.moderate < policy.critical)) {
+  if (!cutOffsInOrder(policy)) {
     const source = (key: 'critical' | 'moderate') =>
       overrides[key] !== undefined ? `--${key} ${policy[key]}` : `${key} ${policy[key]} (from the study)`;
     throw new InputError(`the moderate cut-off must be below the critical one: ${source('moderate')} is not below ${source('critical')}`);

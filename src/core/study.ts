@@ -7,6 +7,10 @@
  *
  * Units: factor bounds, limits, precision and explicit levels are in engineering units
  * (the factor's `unit`). Coded units map low → −1 and high → +1 (see `region/codedUnits.ts`).
+ *
+ * The allowed values of the enumerated keys (aggregate rule, confidence basis, model preset,
+ * criterion) and the validity rules of a tier policy are declared here once; the study reader
+ * and the command-line options both check against them.
  */
 
 export type FactorRole = 'operating' | 'model';
@@ -61,8 +65,12 @@ export interface InteractionRow {
   index: number;
 }
 
-export type AggregateRule = 'mean' | 'max' | 'weighted';
-export type ConfidencePolicy = 'point' | 'upper';
+/** How indices combine over responses (`policy.aggregate`, `tiers --aggregate`). */
+export const AGGREGATE_RULES = ['mean', 'max', 'weighted'] as const;
+export type AggregateRule = (typeof AGGREGATE_RULES)[number];
+/** What the tiers are decided on (`policy.confidence`, `tiers --confidence`). */
+export const CONFIDENCE_POLICIES = ['point', 'upper'] as const;
+export type ConfidencePolicy = (typeof CONFIDENCE_POLICIES)[number];
 
 export interface TierPolicy {
   aggregate: AggregateRule;
@@ -76,8 +84,15 @@ export interface TierPolicy {
   confidence: ConfidencePolicy;
 }
 
-export type ModelPreset = 'linear' | 'interactions' | 'quadratic';
-export type Criterion = 'D' | 'I';
+export const MODEL_PRESETS = ['linear', 'interactions', 'quadratic'] as const;
+export type ModelPreset = (typeof MODEL_PRESETS)[number];
+/** The optimality criterion of the exact design search: D (det X'X) or I (average prediction variance). */
+export const CRITERIA = ['D', 'I'] as const;
+export type Criterion = (typeof CRITERIA)[number];
+
+export function isCriterion(text: string): text is Criterion {
+  return (CRITERIA as readonly string[]).includes(text);
+}
 
 export interface DesignSettings {
   /** Fitting runs, or `auto` for p plus the lack-of-fit allowance. */
@@ -127,6 +142,22 @@ export interface Study {
   source: { studyFile: string; indicesFile: string; interactionsFile?: string };
   /** Non-fatal findings from reading the study (clamped indices, first > total, …). */
   warnings: string[];
+}
+
+/** The cut-offs of a tier policy; each must lie strictly between 0 and 1. */
+export const POLICY_CUT_OFFS = ['critical', 'moderate', 'interaction'] as const;
+
+/**
+ * The validity rules of a tier policy, in one place for the study reader and the `tiers`
+ * options: a cut-off lies strictly between 0 and 1, and moderate lies below critical.
+ */
+export function isCutOff(value: number): boolean {
+  return value > 0 && value < 1;
+}
+
+/** Whether moderate lies below critical (false for NaN too). */
+export function cutOffsInOrder(policy: Pick<TierPolicy, 'critical' | 'moderate'>): boolean {
+  return policy.moderate < policy.critical;
 }
 
 export const DEFAULT_POLICY: TierPolicy = {

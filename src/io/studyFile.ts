@@ -23,8 +23,15 @@ import { z } from 'zod';
 import { InputError } from '../core/inputError.js';
 import { parseTerm } from '../core/model/termSyntax.js';
 import {
+  AGGREGATE_RULES,
+  CONFIDENCE_POLICIES,
+  CRITERIA,
   DEFAULT_DESIGN,
   DEFAULT_POLICY,
+  MODEL_PRESETS,
+  POLICY_CUT_OFFS,
+  cutOffsInOrder,
+  isCutOff,
   type CostSettings,
   type DesignSettings,
   type Factor,
@@ -73,11 +80,11 @@ const responseSchema = z.strictObject({
 });
 
 const policySchema = z.strictObject({
-  aggregate: z.enum(['mean', 'max', 'weighted']).optional(),
+  aggregate: z.enum(AGGREGATE_RULES).optional(),
   critical: z.number().optional(),
   moderate: z.number().optional(),
   interaction: z.number().optional(),
-  confidence: z.enum(['point', 'upper']).optional(),
+  confidence: z.enum(CONFIDENCE_POLICIES).optional(),
 });
 
 const levelsSchema = z.strictObject({
@@ -88,11 +95,11 @@ const levelsSchema = z.strictObject({
 const designSchema = z.strictObject({
   runs: z.union([z.number().int().min(1), z.literal('auto')], { error: 'must be a whole number of runs (≥ 1) or "auto"' }).optional(),
   model: z
-    .union([z.enum(['linear', 'interactions', 'quadratic']), z.array(z.string().min(1)).min(1)], {
+    .union([z.enum(MODEL_PRESETS), z.array(z.string().min(1)).min(1)], {
       error: 'must be "linear", "interactions", "quadratic" or a list of model terms such as [inlet_temp, inlet_temp*feed_rate]',
     })
     .optional(),
-  criterion: z.enum(['D', 'I']).optional(),
+  criterion: z.enum(CRITERIA).optional(),
   centreRuns: z.number().int().min(0).optional(),
   holdoutRuns: z.union([z.number().int().min(0), z.literal('auto')], { error: 'must be a whole number of runs (≥ 0) or "auto"' }).optional(),
   // 32-bit generators: a larger seed would silently repeat a smaller one's design.
@@ -353,10 +360,10 @@ function checkStudyRules(data: StudyDocument, file: string): { study: CheckedStu
   });
 
   const policy: TierPolicy = { ...DEFAULT_POLICY, ...definedOnly(data.policy ?? {}) };
-  for (const name of ['critical', 'moderate', 'interaction'] as const) {
-    if (!(policy[name] > 0 && policy[name] < 1)) fail(`policy.${name}`, `must lie strictly between 0 and 1, not ${policy[name]}`);
+  for (const name of POLICY_CUT_OFFS) {
+    if (!isCutOff(policy[name])) fail(`policy.${name}`, `must lie strictly between 0 and 1, not ${policy[name]}`);
   }
-  if (!(policy.critical > policy.moderate)) {
+  if (!cutOffsInOrder(policy)) {
     fail('policy.critical', `critical (${policy.critical}) must be greater than moderate (${policy.moderate})`);
   }
 

@@ -16,6 +16,7 @@
  * points are sorted lexicographically (the run order is randomised later).
  */
 import { InputError } from '../inputError.js';
+import type { Criterion } from '../study.js';
 import { modelMatrix, type CompiledModel } from '../model/modelMatrix.js';
 import { regionMoments } from '../evaluate/regionMoments.js';
 import { dEfficiency, iCriterion, logDetPerRun } from '../evaluate/designCriteria.js';
@@ -36,7 +37,7 @@ export interface ExactDesignRequest {
   model: CompiledModel;
   region: CandidateRegion;
   runs: number;
-  criterion: 'D' | 'I';
+  criterion: Criterion;
   seed: number;
   starts: number;
   /** Region moment matrix W (p × p); computed with `regionMoments` when absent. */

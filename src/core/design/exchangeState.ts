@@ -15,6 +15,7 @@
  * costs ln ridge in the log-determinant); the ridge is dropped at the next refresh at which
  * X'X itself is nonsingular.
  */
+import type { Criterion } from '../study.js';
 import { expandInto, type CompiledModel } from '../model/modelMatrix.js';
 import { crossProduct } from '../linalg/crossProduct.js';
 import { invertSymmetric } from '../linalg/cholesky.js';
@@ -31,8 +32,6 @@ const RIDGE = 1e-4;
 const SINGULAR_PIVOT = 1e-10;
 /** A trial must improve the criterion by more than this (relative) to be accepted. */
 const IMPROVEMENT = 1e-9;
-
-export type SearchCriterion = 'D' | 'I';
 
 export class ExchangeState {
   readonly N: number;
@@ -62,7 +61,7 @@ export class ExchangeState {
   constructor(
     private readonly model: CompiledModel,
     initial: Float64Array,
-    private readonly criterion: SearchCriterion,
+    private readonly criterion: Criterion,
     private readonly moments: Float64Array | null,
   ) {
     this.k = model.factorIds.length;
@@ -87,7 +86,7 @@ export class ExchangeState {
   }
 
   /** The criterion the trials are scored on now (D while the ridge is needed). */
-  get activeCriterion(): SearchCriterion {
+  get activeCriterion(): Criterion {
     return this.ridge > 0 || this.moments === null ? 'D' : this.criterion;
   }
 
