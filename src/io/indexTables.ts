@@ -42,7 +42,7 @@ export const INDEX_COLUMN_ALIASES: Readonly<Record<IndexColumn, readonly string[
   total_high: ['total_high', 'st_high'],
 };
 
-export const INTERACTION_COLUMN_ALIASES: Readonly<Record<InteractionColumn, readonly string[]>> = {
+const INTERACTION_COLUMN_ALIASES: Readonly<Record<InteractionColumn, readonly string[]>> = {
   factor_a: ['factor_a', 'parameter_a'],
   factor_b: ['factor_b', 'parameter_b'],
   response: ['response', 'output'],
@@ -50,11 +50,11 @@ export const INTERACTION_COLUMN_ALIASES: Readonly<Record<InteractionColumn, read
 };
 
 /** How far outside [0, 1] an index may stray (estimator noise) before it is an error. */
-export const INDEX_RANGE_TOLERANCE = 0.05;
+const INDEX_RANGE_TOLERANCE = 0.05;
 /** How far first-order may exceed total, or an estimate cross its bound, before we speak up. */
-export const INDEX_ORDER_TOLERANCE = 0.02;
+const INDEX_ORDER_TOLERANCE = 0.02;
 /** Sum of first-order indices of one response above 1 + this is reported (Σ S_i ≤ 1). */
-export const FIRST_ORDER_SUM_TOLERANCE = 0.05;
+const FIRST_ORDER_SUM_TOLERANCE = 0.05;
 
 export interface StudyIds {
   factorIds: readonly string[];

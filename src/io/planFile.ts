@@ -1,5 +1,5 @@
 /**
- * plan.json: sealing a plan with its checksum and id, writing it, and reading it back.
+ * plan.json: sealing a plan with its checksum and id, writing it, and checking one read back.
  *
  * The checksum is SHA-256 over the document serialised with sorted keys, leaving out the
  * fields that describe the file rather than the plan (`checksum`, `planId`, `createdAt`).
@@ -7,7 +7,6 @@
  * machine and on any day; `createdAt` is metadata only.
  */
 import { createHash } from 'node:crypto';
-import { readFile } from 'node:fs/promises';
 import { InputError } from '../core/inputError.js';
 import type { PlanDocument } from '../core/plan/planDocument.js';
 
@@ -25,22 +24,6 @@ export function sealPlan(plan: PlanDocument, createdAt: Date = new Date()): Plan
 
 export function planJson(plan: PlanDocument): string {
   return `${JSON.stringify(plan, null, 2)}\n`;
-}
-
-export async function readPlanFile(path: string): Promise<PlanDocument> {
-  let text: string;
-  try {
-    text = await readFile(path, 'utf8');
-  } catch (error) {
-    throw new InputError(`cannot read the plan file (${(error as NodeJS.ErrnoException).code ?? 'unreadable'})`, { file: path });
-  }
-  let parsed: unknown;
-  try {
-    parsed = JSON.parse(text.replace(/^\uFEFF/, ''));
-  } catch (error) {
-    throw new InputError(`not valid JSON: ${(error as Error).message}`, { file: path });
-  }
-  return checkedPlan(parsed, path);
 }
 
 /** An already parsed plan.json, refused unless it is format version 1 with a matching checksum. */

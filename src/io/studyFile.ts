@@ -45,7 +45,7 @@ import { fileSystemProblem, parseJsonText, undecodableLine } from './tableRows.j
 import { didYouMean } from '../core/suggestKey.js';
 import { RESERVED_WORDS } from '../core/region/constraintWords.js';
 
-export const STUDY_EXTENSIONS = ['.yaml', '.yml', '.json'] as const;
+const STUDY_EXTENSIONS = ['.yaml', '.yml', '.json'] as const;
 
 /** Letter first, then letters, digits or underscores: usable in constraints and model terms. */
 const IDENTIFIER = /^[A-Za-z][A-Za-z0-9_]*$/;

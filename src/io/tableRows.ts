@@ -87,7 +87,7 @@ export async function readTableRows(path: string, file: string, sheetNames: read
 }
 
 /** One-line errors for a missing, empty, folder or unreadable file. */
-export async function checkReadableFile(path: string, file: string): Promise<void> {
+async function checkReadableFile(path: string, file: string): Promise<void> {
   let info;
   try {
     info = await stat(path);
@@ -109,7 +109,7 @@ export function fileSystemProblem(error: unknown): string {
 // ---------------------------------------------------------------------------------- text
 
 /** Decodes UTF-8 text, dropping a byte-order mark and refusing UTF-16 and workbooks in disguise. */
-export function decodeUtf8Text(bytes: Uint8Array, file: string): string {
+function decodeUtf8Text(bytes: Uint8Array, file: string): string {
   if (bytes[0] === 0x50 && bytes[1] === 0x4b && bytes[2] === 0x03 && bytes[3] === 0x04) {
     throw new InputError('is a zipped workbook, not text; give it the .xlsx extension or export it as CSV', { file });
   }

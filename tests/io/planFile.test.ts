@@ -2,11 +2,8 @@
  * plan.json sealing: the checksum ignores file metadata, covers the content, and a damaged
  * file is refused on reading.
  */
-import { mkdtempSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { planChecksum, planJson, readPlanFile, sealPlan } from '../../src/io/planFile.js';
+import { checkedPlan, planChecksum, planJson, sealPlan } from '../../src/io/planFile.js';
 import type { PlanDocument } from '../../src/core/plan/planDocument.js';
 
 const unsealed = {
@@ -35,26 +32,20 @@ describe('sealPlan', () => {
   });
 });
 
-describe('readPlanFile', () => {
-  const dir = mkdtempSync(join(tmpdir(), 'tierplan-planfile-'));
-
-  it('reads back what was written', async () => {
-    const path = join(dir, 'plan.json');
+describe('checkedPlan', () => {
+  it('reads back what was written', () => {
     const sealed = sealPlan(unsealed);
-    writeFileSync(path, planJson(sealed));
-    expect((await readPlanFile(path)).checksum).toBe(sealed.checksum);
+    expect(checkedPlan(JSON.parse(planJson(sealed)), 'plan.json').checksum).toBe(sealed.checksum);
   });
 
-  it('refuses a plan edited by hand, naming the file and the key', async () => {
-    const path = join(dir, 'edited.json');
+  it('refuses a plan edited by hand, naming the file and the key', () => {
     const sealed = sealPlan(unsealed);
-    writeFileSync(path, planJson({ ...sealed, runs: [{ ...sealed.runs[0], settings: { a: 99 } }] }));
-    await expect(readPlanFile(path)).rejects.toThrow(/checksum/);
+    const edited = JSON.parse(planJson({ ...sealed, runs: [{ ...sealed.runs[0], settings: { a: 99 } }] }));
+    expect(() => checkedPlan(edited, 'edited.json')).toThrow(/checksum/);
+    expect(() => checkedPlan(edited, 'edited.json')).toThrow(expect.objectContaining({ location: { file: 'edited.json', key: 'checksum' } }));
   });
 
-  it('refuses a file that is not a plan', async () => {
-    const path = join(dir, 'other.json');
-    writeFileSync(path, '{"title": "x"}');
-    await expect(readPlanFile(path)).rejects.toThrow(/formatVersion/);
+  it('refuses a file that is not a plan', () => {
+    expect(() => checkedPlan({ title: 'x' }, 'other.json')).toThrow(/formatVersion/);
   });
 });

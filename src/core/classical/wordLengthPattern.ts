@@ -90,13 +90,3 @@ export function wordLengthCounts(words: readonly number[], k: number): number[] 
   }
   return counts;
 }
-
-/** Negative when pattern `a` has less aberration than `b` (lexicographic order), 0 when equal. */
-export function compareWordLengthPatterns(a: readonly number[], b: readonly number[]): number {
-  const n = Math.max(a.length, b.length);
-  for (let i = 0; i < n; i++) {
-    const difference = (a[i] ?? 0) - (b[i] ?? 0);
-    if (difference !== 0) return difference;
-  }
-  return 0;
-}

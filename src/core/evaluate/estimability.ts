@@ -17,7 +17,7 @@
 import { symmetricInverse } from '../linalg/cholesky.js';
 
 /** Relative residual norm at or below which a column counts as dependent (coded units, |x| ≤ ~1.7). */
-export const RANK_TOLERANCE = 1e-9;
+const RANK_TOLERANCE = 1e-9;
 /** Alias coefficients smaller than this in magnitude are left out of the report. */
 const ALIAS_REPORT_TOLERANCE = 1e-8;
 

@@ -15,7 +15,7 @@
 const HALTON_SKIP = 20;
 
 /** The radical inverse of `index` in `base`: its base-b digits mirrored about the point. */
-export function radicalInverse(index: number, base: number): number {
+function radicalInverse(index: number, base: number): number {
   let result = 0;
   let scale = 1 / base;
   let rest = index;

@@ -54,7 +54,7 @@ export function predictionVariances(model: CompiledModel, inverse: Float64Array,
 }
 
 /** Quantile of ascending `sorted` at fraction q, linear between order statistics. */
-export function sortedQuantile(sorted: ArrayLike<number>, q: number): number {
+function sortedQuantile(sorted: ArrayLike<number>, q: number): number {
   const position = q * (sorted.length - 1);
   const below = Math.floor(position);
   const above = Math.min(sorted.length - 1, below + 1);

@@ -15,7 +15,7 @@
  */
 
 /** Default relative pivot floor: below it a matrix is treated as singular. */
-export const PIVOT_TOLERANCE = 1e-12;
+const PIVOT_TOLERANCE = 1e-12;
 
 /** Lower-triangular L with A = L L', or null when A is not numerically positive definite. */
 export function choleskyFactor(A: Float64Array, p: number, pivotTolerance = PIVOT_TOLERANCE): Float64Array | null {

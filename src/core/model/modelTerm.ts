@@ -17,13 +17,6 @@ export interface ModelTerm {
 
 export const INTERCEPT_LABEL = '1';
 
-/** Total degree of the term (0 for the intercept). */
-export function termDegree(term: Pick<ModelTerm, 'powers'>): number {
-  let degree = 0;
-  for (const power of Object.values(term.powers)) degree += power;
-  return degree;
-}
-
 /** The term in study syntax, factors in `factorOrder`. */
 export function termLabel(term: Pick<ModelTerm, 'powers'>, factorOrder: readonly string[]): string {
   const ids = Object.keys(term.powers).sort((a, b) => rank(factorOrder, a) - rank(factorOrder, b));

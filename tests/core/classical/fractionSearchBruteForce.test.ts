@@ -9,12 +9,17 @@
  */
 import { describe, expect, it } from 'vitest';
 import { minimumAberrationFraction } from '../../../src/core/classical/fractionalFactorial.js';
-import {
-  compareWordLengthPatterns,
-  definingRelationGroup,
-  wordLength,
-  wordLengthCounts,
-} from '../../../src/core/classical/wordLengthPattern.js';
+import { definingRelationGroup, wordLength, wordLengthCounts } from '../../../src/core/classical/wordLengthPattern.js';
+
+/** Negative when pattern `a` has less aberration than `b` (lexicographic order), 0 when equal. */
+function compareWordLengthPatterns(a: readonly number[], b: readonly number[]): number {
+  const n = Math.max(a.length, b.length);
+  for (let i = 0; i < n; i++) {
+    const difference = (a[i] ?? 0) - (b[i] ?? 0);
+    if (difference !== 0) return difference;
+  }
+  return 0;
+}
 
 function bruteForceMinimumPattern(k: number, m: number): number[] {
   const p = k - m;
