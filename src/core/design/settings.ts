@@ -2,7 +2,7 @@
  * Engineering settings of a design point: what the lab sets on the equipment.
  *
  * Converts a coded point (design factors only) to engineering units with the coding of
- * `levels.ts` (low → −1, high → +1) and rounds every setting to the factor's precision,
+ * ../region/codedUnits.ts (low → −1, high → +1) and rounds every setting to the factor's precision,
  * the smallest step the equipment can be set to (common practice), exact halves towards the
  * middle of the range as for the levels (`settableValue`). Fixed operating factors
  * appear at their `fixedAt` value so that every run sheet row is complete.
