@@ -12,12 +12,20 @@
  * nor the solution in exact arithmetic; it makes the pivot order and the rank decision
  * independent of the units each column happens to carry.
  *
- * Rank rule: at step k the remaining column of largest norm is brought forward; when that
- * norm is at or below `tolerance · |r₁₁|` the factorisation stops and the columns not yet
- * chosen are inestimable (numerical rank, Golub & Van Loan §5.4.2). The default tolerance is
- * max(n, p) · ε (ε = 2⁻⁵², machine epsilon), the usual floor for a column-scaled problem:
- * a column closer than that to the span of the others cannot be told apart from it in double
- * precision. Columns that are exactly zero are inestimable too.
+ * Pivoting and rank rule (both on the equilibrated columns, whose norms are all 1):
+ * - `order` (default): columns are taken in their given order; a column whose remaining
+ *   norm, after the reflections of the columns already taken, is at or below `tolerance`
+ *   is numerically a combination of those earlier columns, so it is moved to the end and
+ *   counted inestimable ("limited pivoting", as in LINPACK's least-squares use of dqrdc:
+ *   Dongarra et al., 1979, "LINPACK Users' Guide", ch. 9). The inestimable columns are
+ *   then the LATER ones of a dependent set — for a model in the usual order, the
+ *   higher-order terms — which is what a reader of the fit expects to be told.
+ * - `norm`: Businger–Golub pivoting, the remaining column of largest norm first; the
+ *   factorisation stops when that norm is at or below `tolerance · |r₁₁|` (numerical rank,
+ *   Golub & Van Loan §5.4.2).
+ * The default tolerance is max(n, p) · ε (ε = 2⁻⁵², machine epsilon), the usual floor for a
+ * column-scaled problem: a column closer than that to the span of the others cannot be told
+ * apart from it in double precision. Columns that are exactly zero are inestimable too.
  *
  * Conventions: input matrices are row-major n × p Float64Arrays (as `modelMatrix` writes
  * them); internally the factor is column-major. Coefficient vectors are in the ORIGINAL
@@ -55,6 +63,8 @@ export interface QrFactor {
 export interface QrOptions {
   /** Relative rank tolerance; default max(n, p)·ε. */
   tolerance?: number;
+  /** Pivot rule (see the module header); default `order`. */
+  pivoting?: 'order' | 'norm';
 }
 
 /** Householder QR with column pivoting of the row-major n × p matrix `A`. */
@@ -74,25 +84,38 @@ export function householderQr(A: ArrayLike<number>, n: number, p: number, option
   const diagonal = new Float64Array(p);
   const steps = Math.min(n, p);
   const tau = new Float64Array(steps);
+  const byNorm = options.pivoting === 'norm';
   let rank = 0;
   let leading = 0;
-  for (let k = 0; k < steps; k++) {
-    // Remaining norms are recomputed exactly at every step: O(n p²) in all, the same order as
-    // the factorisation, and free of the cancellation that down-dated norms suffer.
-    let best = -1;
-    let bestNorm = -1;
-    for (let j = k; j < p; j++) {
-      let sum = 0;
-      for (let i = k; i < n; i++) sum += packed[j * n + i] ** 2;
-      if (sum > bestNorm) {
-        bestNorm = sum;
-        best = j;
+  let deferred = 0;
+  for (let k = 0; k < steps && k < p - deferred; k++) {
+    let norm: number;
+    if (byNorm) {
+      // Remaining norms are recomputed exactly at every step: O(n p²) in all, the same order
+      // as the factorisation, and free of the cancellation that down-dated norms suffer.
+      let best = -1;
+      let bestNorm = -1;
+      for (let j = k; j < p; j++) {
+        const sum = remainingNormSquared(packed, n, k, j);
+        if (sum > bestNorm) {
+          bestNorm = sum;
+          best = j;
+        }
       }
+      norm = Math.sqrt(bestNorm);
+      if (k === 0) leading = norm;
+      if (!(norm > 0) || norm <= tolerance * leading) break;
+      if (best !== k) swapColumns(packed, n, k, best, permutation);
+    } else {
+      norm = Math.sqrt(remainingNormSquared(packed, n, k, k));
+      while (!(norm > tolerance) && k < p - deferred) {
+        // Numerically dependent on the columns already taken: to the back, order kept.
+        moveToEnd(packed, n, p, k, permutation);
+        deferred += 1;
+        if (k < p - deferred) norm = Math.sqrt(remainingNormSquared(packed, n, k, k));
+      }
+      if (k >= p - deferred) break;
     }
-    const norm = Math.sqrt(bestNorm);
-    if (k === 0) leading = norm;
-    if (!(norm > 0) || norm <= tolerance * leading) break;
-    if (best !== k) swapColumns(packed, n, k, best, permutation);
     // Householder vector v = x − α e₁ with α = −sign(x₁)‖x‖ (no cancellation in v₁).
     const head = packed[k * n + k];
     const alpha = head >= 0 ? -norm : norm;
@@ -111,6 +134,23 @@ export function householderQr(A: ArrayLike<number>, n: number, p: number, option
     rank = k + 1;
   }
   return { n, p, rank, tolerance, permutation, scale, packed, diagonal, tau: tau.slice(0, rank) };
+}
+
+/** Σ_{i ≥ k} A[i, j]² of the working column j. */
+function remainingNormSquared(packed: Float64Array, n: number, k: number, j: number): number {
+  let sum = 0;
+  for (let i = k; i < n; i++) sum += packed[j * n + i] ** 2;
+  return sum;
+}
+
+/** Moves working column k to position p − 1, shifting k + 1 … p − 1 one place forward. */
+function moveToEnd(packed: Float64Array, n: number, p: number, k: number, permutation: Int32Array): void {
+  const column = packed.slice(k * n, (k + 1) * n);
+  packed.copyWithin(k * n, (k + 1) * n, p * n);
+  packed.set(column, (p - 1) * n);
+  const original = permutation[k];
+  permutation.copyWithin(k, k + 1, p);
+  permutation[p - 1] = original;
 }
 
 function swapColumns(packed: Float64Array, n: number, a: number, b: number, permutation: Int32Array): void {

@@ -32,6 +32,20 @@ const RAW_DIGITS: Record<string, { coefficients: number; standardDeviations: num
   Wampler5: { coefficients: 6.5, standardDeviations: 13, residualSd: 13, rSquared: 13 },
 };
 
+/**
+ * Where the order-keeping rule (the default, which never reorders a well-conditioned
+ * column) reaches fewer digits on raw columns: Filip 7.0, Wampler4 8.0 and Wampler5 5.9
+ * coefficient digits (against 7.3, 9.1 and 7.1 with norm pivoting). Wampler5's coefficients
+ * are 1 with standard deviations near 2e5, so six digits of them are far below their
+ * uncertainty. The analysis fits coded columns, where all sets reach 7 digits or more
+ * (tests/core/analysis/engineeringCoefficients.test.ts).
+ */
+const ORDER_RULE_DIGITS: Record<string, Partial<(typeof RAW_DIGITS)[string]>> = {
+  Wampler2: { coefficients: 12.5 },
+  Wampler4: { coefficients: 7.5 },
+  Wampler5: { coefficients: 5.5 },
+};
+
 function rawDesign(name: string): { X: Float64Array; n: number; p: number } {
   const set = NIST_STRD[name];
   const p = set.estimates.length;
@@ -45,12 +59,12 @@ function rawDesign(name: string): { X: Float64Array; n: number; p: number } {
   return { X, n, p };
 }
 
-describe('NIST StRD certified values, raw columns (NIST StRD lls)', () => {
+describe.each(['order', 'norm'] as const)('NIST StRD certified values, raw columns, %s pivoting (NIST StRD lls)', (pivoting) => {
   for (const name of Object.keys(RAW_DIGITS)) {
     it(`${name}: coefficients, their standard deviations, residual SD and R²`, () => {
       const set = NIST_STRD[name];
       const { X, n, p } = rawDesign(name);
-      const factor = householderQr(X, n, p);
+      const factor = householderQr(X, n, p, { pivoting });
       expect(factor.rank).toBe(p);
       const solution = solveLeastSquares(factor, set.y);
       const covariance = unscaledCovariance(factor);
@@ -63,10 +77,11 @@ describe('NIST StRD certified values, raw columns (NIST StRD lls)', () => {
         residualSd: logRelativeError(s, set.residualSd),
         rSquared: logRelativeError(1 - solution.residualSs / sst, set.rSquared),
       };
-      expect(digits.coefficients).toBeGreaterThanOrEqual(RAW_DIGITS[name].coefficients);
-      expect(digits.standardDeviations).toBeGreaterThanOrEqual(RAW_DIGITS[name].standardDeviations);
-      expect(digits.residualSd).toBeGreaterThanOrEqual(RAW_DIGITS[name].residualSd);
-      expect(digits.rSquared).toBeGreaterThanOrEqual(RAW_DIGITS[name].rSquared);
+      const bar = { ...RAW_DIGITS[name], ...(pivoting === 'order' ? ORDER_RULE_DIGITS[name] : {}) };
+      expect(digits.coefficients).toBeGreaterThanOrEqual(bar.coefficients);
+      expect(digits.standardDeviations).toBeGreaterThanOrEqual(bar.standardDeviations);
+      expect(digits.residualSd).toBeGreaterThanOrEqual(bar.residualSd);
+      expect(digits.rSquared).toBeGreaterThanOrEqual(bar.rSquared);
     });
   }
 });
@@ -76,11 +91,23 @@ describe('rank and estimability (hand-worked)', () => {
   const xs = [-1, 0, 1, 2];
   const X = Float64Array.from(xs.flatMap((x) => [1, x, 2 * x, x * x]));
 
-  it('finds the copied column inestimable and keeps the first of a tied pair', () => {
-    const factor = householderQr(X, 4, 4);
-    expect(factor.rank).toBe(3);
-    // Both x and 2x have norm-one scaled columns that tie; the pivot keeps the earlier one.
-    expect(inestimableColumns(factor)).toEqual([2]);
+  it('finds the copied column inestimable and keeps the earlier one (both pivot rules)', () => {
+    for (const pivoting of ['order', 'norm'] as const) {
+      const factor = householderQr(X, 4, 4, { pivoting });
+      expect(factor.rank).toBe(3);
+      // x and 2x have the same scaled column; the order rule defers the later, and under the
+      // norm rule they tie and the earlier wins.
+      expect(inestimableColumns(factor)).toEqual([2]);
+    }
+  });
+
+  it('order rule: of x and x² on two levels (−1, 0), the later term x² is the inestimable one', () => {
+    // On x ∈ {−1, 0}: x² = −x, so one of the two cannot be estimated; the model order
+    // (1, x, x²) decides which is reported. The norm rule is free to keep x² instead.
+    const two = [-1, 0, -1, 0];
+    const Q = Float64Array.from(two.flatMap((x) => [1, x, x * x]));
+    expect(inestimableColumns(householderQr(Q, 4, 3))).toEqual([2]);
+    expect(householderQr(Q, 4, 3, { pivoting: 'norm' }).rank).toBe(2);
   });
 
   it('solves the estimable part exactly: y = 1 + x + x² is recovered, the copy is NaN', () => {
