@@ -17,9 +17,9 @@
  * Conventions fixed here:
  * - a run whose result is null or NaN is left out (listed in `missingRuns`); terms the
  *   remaining runs cannot estimate are listed in `inestimable` and their rows are null;
- * - the method is REML when every fitted run carries a whole plot and some whole plot holds
- *   two or more of them (otherwise the whole plots add nothing to estimate), else least
- *   squares; sessions become fixed blocks when the fitted runs span two or more sessions;
+ * - the method is REML when every fitted run carries a whole plot, some whole plot holds
+ *   two or more of them (otherwise the whole plots add nothing to estimate) and the fit has
+ *   residual degrees of freedom, else least squares; sessions become fixed blocks when the fitted runs span two or more sessions;
  * - replicate groups are identical coded points within one session;
  * - under REML the ANOVA lines, R², PRESS and the per-run leverage, studentised residual and
  *   Cook's distance are null (they are least-squares quantities), fitted values are X β̂;
@@ -27,7 +27,7 @@
  *   box [−1, 1]^k, null when a term is inestimable or the fitted polynomial is constant.
  */
 import { InputError } from '../inputError.js';
-import { isEstimableRow, type QrFactor } from '../linalg/householderQr.js';
+import { householderQr, isEstimableRow, type QrFactor } from '../linalg/householderQr.js';
 import { expandInto, type CompiledModel } from '../model/modelMatrix.js';
 import type {
   AnalysisRun,
@@ -100,7 +100,12 @@ export function analyzeResponse(input: ResponseAnalysisInput): ResponseAnalysis 
     row: rowOf(run),
   }));
 
-  const useReml = used.every((run) => run.wholePlot !== undefined) && new Set(used.map((run) => run.wholePlot)).size < n;
+  // REML needs residual degrees of freedom; a saturated fit goes the least-squares way and
+  // reports that nothing can be tested.
+  const useReml =
+    used.every((run) => run.wholePlot !== undefined) &&
+    new Set(used.map((run) => run.wholePlot)).size < n &&
+    householderQr(X, n, q).rank < n;
   const core = useReml ? remlCore(X, y, n, q, used, level) : leastSquaresCore(X, y, n, q, used, blocks, level);
 
   const inestimable = terms.filter((_, j) => !Number.isFinite(core.coefficients[j]));

@@ -65,6 +65,28 @@ describe('runs without a result', () => {
   });
 });
 
+describe('a saturated fit (as many runs with results as terms)', () => {
+  it('fits, leaves every test null and says why it is not yet calibrated; also with whole plots', () => {
+    const square = modelOf([[0, 0], [1, 0], [0, 1], [1, 1]], ['x1', 'x2']);
+    const corners = [[-1, -1], [1, -1], [-1, 1], [1, 1]];
+    for (const wholePlots of [undefined, [1, 1, 2, 2]]) {
+      const runs = runsOf(corners, [3, 5, 4, 9]).map((run, i) => (wholePlots ? { ...run, wholePlot: wholePlots[i] } : run));
+      const analysis = analyzeResponse({ id: 'y', ...square, ranges, runs, holdouts: runsOf([[0, 0]], [5], 5, 'H') });
+      expect(analysis.method).toBe('least squares');
+      // 2² factorial, y = 3, 5, 4, 9: β = (21/4, 7/4, 5/4, 3/4) exactly.
+      [5.25, 1.75, 1.25, 0.75].forEach((b, j) => expect(analysis.coefficients[j].estimate).toBeCloseTo(b, 14));
+      expect(analysis.coefficients.map((c) => c.standardError)).toEqual([null, null, null, null]);
+      // The model line keeps its SS (all of SST) but has no F without residual df.
+      expect(analysis.anova.model).toMatchObject({ df: 3, F: null, p: null });
+      expect(analysis.anova.model!.ss).toBeCloseTo(4 * (1.75 ** 2 + 1.25 ** 2 + 0.75 ** 2), 12);
+      expect([analysis.anova.residual, analysis.anova.lackOfFit, analysis.anova.pureError]).toEqual([null, null, null]);
+      expect(analysis.press).toBeNull();
+      expect(analysis.holdout[0].predicted).toBeNull();
+      expect(analysis.verdict.reasons.map((r) => r.kind)).toEqual(['noResidualDf', 'noHoldout']);
+    }
+  });
+});
+
 describe('calibration verdict rule', () => {
   const summary = (checked: number, inside: number, rms: number | null): HoldoutSummary => ({
     checked,
