@@ -1,8 +1,11 @@
-// Minimal typing of the part of jstat (no bundled types) that the power calculation uses.
+// Minimal typing of the part of jstat (no bundled types) that the power calculation and the
+// analysis of results use.
 declare module 'jstat' {
   interface JStatStatic {
     noncentralt: { cdf(x: number, dof: number, ncp: number): number };
-    studentt: { cdf(x: number, dof: number): number; inv(p: number, dof: number): number };
+    studentt: { cdf(x: number, dof: number): number; inv(p: number, dof: number): number; pdf(x: number, dof: number): number };
+    /** Regularised incomplete beta function I_x(a, b). */
+    ibeta(x: number, a: number, b: number): number;
   }
   const jStat: JStatStatic;
   export default jStat;
