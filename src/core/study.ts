@@ -61,8 +61,12 @@ export interface InteractionRow {
   index: number;
 }
 
-export type AggregateRule = 'mean' | 'max' | 'weighted';
-export type ConfidencePolicy = 'point' | 'upper';
+/** How indices combine over the responses; the one list the study reader and the options check against. */
+export const AGGREGATE_RULES = ['mean', 'max', 'weighted'] as const;
+export type AggregateRule = (typeof AGGREGATE_RULES)[number];
+/** What a factor is tiered on: the estimate (`point`) or its upper confidence bound (`upper`). */
+export const CONFIDENCE_POLICIES = ['point', 'upper'] as const;
+export type ConfidencePolicy = (typeof CONFIDENCE_POLICIES)[number];
 
 export interface TierPolicy {
   aggregate: AggregateRule;
