@@ -8,6 +8,8 @@ import { toolVersion } from '../io/toolVersion.js';
 import { registerTiers } from './tiersCommand.js';
 import { registerPlan } from './planCommand.js';
 import { registerCompare } from './compareCommand.js';
+import { registerInit } from './initCommand.js';
+import { withExample } from './helpExample.js';
 
 const EXIT_USER_ERROR = 2;
 
@@ -22,6 +24,8 @@ async function main(argv: string[]): Promise<void> {
     .configureOutput({
       outputError: (message, write) => write(`tierplan: ${message.replace(/^error: /, '').replace(/\s*\n\s*/g, ' ').trim()} (see tierplan --help)\n`),
     });
+  withExample(program, 'tierplan plan samples/spray-dryer/study.yaml --out out/spray-dryer');
+  registerInit(program);
   registerTiers(program);
   registerPlan(program);
   registerCompare(program);

@@ -6,25 +6,29 @@ import { isAbsolute, relative, resolve } from 'node:path';
 import type { Command } from 'commander';
 import { InputError } from '../core/inputError.js';
 import type { PlanDocument } from '../core/plan/planDocument.js';
-import { isCriterion, type Study } from '../core/study.js';
+import { isCriterion, type DesignSettings, type Study } from '../core/study.js';
 import { loadStudy } from '../io/studyFile.js';
 import { planJson, sealPlan } from '../io/planFile.js';
 import { toolVersion } from '../io/toolVersion.js';
 import { planSummary } from './planSummary.js';
 import { optionNumber } from './optionNumber.js';
+import { withExample } from './helpExample.js';
+import { addTierOptions, tierOverrides, withTierOverrides, type TierOptionValues } from './tierOptions.js';
 
-interface PlanOptions {
+interface PlanOptions extends TierOptionValues {
   out?: string;
   json?: boolean;
   force?: boolean;
   seed?: string;
   runs?: string;
+  centreRuns?: string;
+  holdoutRuns?: string;
   criterion?: string;
   starts?: string;
 }
 
 export function registerPlan(program: Command): void {
-  program
+  const command = program
     .command('plan')
     .description('plan the lab campaign for a study and write the run sheets and the report')
     .argument('<study>', 'study file (.yaml, .yml or .json)')
@@ -32,52 +36,64 @@ export function registerPlan(program: Command): void {
     .option('--json', 'print the plan document on stdout (writes nothing unless --out is given)')
     .option('--force', 'overwrite files of a different plan in the output folder')
     .option('--seed <n>', 'random seed for the design search and the run order (overrides design.seed)')
-    .option('--runs <n>', "fitting runs, or 'auto' (overrides design.runs)")
+    .option('--runs <n>', "fitting runs of the optimal design, not counting centre or holdout runs, or 'auto' (overrides design.runs)")
+    .option('--centre-runs <n>', 'replicate runs at the centre point, added to the fitting runs (overrides design.centreRuns)')
+    .option('--holdout-runs <n>', "validation runs kept out of the fit, added to the others, or 'auto' (overrides design.holdoutRuns)")
     .option('--criterion <name>', 'D or I (overrides design.criterion)')
-    .option('--starts <n>', 'random starts of the exchange search (overrides design.starts)')
-    .action(async (studyPath: string, options: PlanOptions) => {
-      const study = applyOverrides(await loadStudy(studyPath), options);
-      for (const warning of study.warnings) process.stderr.write(`warning: ${warning}\n`);
+    .option('--starts <n>', 'random starts of the exchange search (overrides design.starts)');
+  addTierOptions(command);
+  withExample(command, 'tierplan plan samples/spray-dryer/study.yaml --centre-runs 4 --out out/spray-dryer');
+  command.action(async (studyPath: string, options: PlanOptions) => {
+    // Everything the options alone can get wrong is refused before the study is read.
+    const designOverrides = designOptionOverrides(options);
+    const policyOverrides = tierOverrides(options);
+    const loaded = await loadStudy(studyPath);
+    const study: Study = {
+      ...loaded,
+      policy: withTierOverrides(loaded.policy, policyOverrides),
+      design: { ...loaded.design, ...designOverrides },
+    };
+    for (const warning of study.warnings) process.stderr.write(`warning: ${warning}\n`);
 
-      const showProgress = Boolean(process.stderr.isTTY);
-      const { buildPlan } = await import('../core/plan/buildPlan.js');
-      let plan: PlanDocument;
-      try {
-        plan = sealPlan(
-          buildPlan(study, {
-            toolVersion: toolVersion(),
-            onProgress: showProgress ? (message) => process.stderr.write(`… ${message}\n`) : undefined,
-            // The search is the slow stage (seconds on large grids): count its starts in place.
-            onSearchProgress: showProgress
-              ? (done, total) => process.stderr.write(`\r  start ${done} of ${total}${done === total ? '\n' : ''}`)
-              : undefined,
-            runsSetBy: options.runs !== undefined && options.runs !== 'auto' ? 'the --runs option' : undefined,
-          }),
-        );
-      } catch (error) {
-        if (!(error instanceof InputError)) throw error;
-        // A value given on the command line is blamed on its option, not on the study file.
-        const option = overridingOption(error.location.key, options);
-        if (option) throw new InputError(`${option} ${options[optionField[option]]}: ${error.message}`);
-        // Core knows keys, not files: name the study file the key lives in.
-        throw error.inFile(studyPath);
-      }
+    const showProgress = Boolean(process.stderr.isTTY);
+    const { buildPlan } = await import('../core/plan/buildPlan.js');
+    let plan: PlanDocument;
+    try {
+      plan = sealPlan(
+        buildPlan(study, {
+          toolVersion: toolVersion(),
+          onProgress: showProgress ? (message) => process.stderr.write(`… ${message}\n`) : undefined,
+          // The search is the slow stage (seconds on large grids): count its starts in place.
+          onSearchProgress: showProgress
+            ? (done, total) => process.stderr.write(`\r  start ${done} of ${total}${done === total ? '\n' : ''}`)
+            : undefined,
+          runsSetBy: options.runs !== undefined && options.runs !== 'auto' ? 'the --runs option' : undefined,
+        }),
+      );
+    } catch (error) {
+      if (!(error instanceof InputError)) throw error;
+      // A value given on the command line is blamed on its option, not on the study file.
+      const option = overridingOption(error.location.key, options);
+      if (option) throw new InputError(`${option.name} ${option.value}: ${error.message}`);
+      // Core knows keys, not files: name the study file the key lives in.
+      throw error.inFile(studyPath);
+    }
 
-      let written: string[] = [];
-      if (options.out) written = await writePlanFiles(options.out, plan, Boolean(options.force));
+    let written: string[] = [];
+    if (options.out) written = await writePlanFiles(options.out, plan, Boolean(options.force));
 
-      if (options.json) {
-        process.stdout.write(planJson(plan));
-        return;
-      }
-      process.stdout.write(planSummary(plan));
-      if (written.length > 0) {
-        process.stdout.write(`\nWrote ${written.length} files to ${options.out}:\n`);
-        for (const path of written) process.stdout.write(`  ${shownPath(path)}\n`);
-      } else {
-        process.stdout.write('\nNothing written: add --out <dir> for plan.json, the run sheets and the report.\n');
-      }
-    });
+    if (options.json) {
+      process.stdout.write(planJson(plan));
+      return;
+    }
+    process.stdout.write(planSummary(plan));
+    if (written.length > 0) {
+      process.stdout.write(`\nWrote ${written.length} files to ${options.out}:\n`);
+      for (const path of written) process.stdout.write(`  ${shownPath(path)}\n`);
+    } else {
+      process.stdout.write('\nNothing written: add --out <dir> for plan.json, the run sheets and the report.\n');
+    }
+  });
 }
 
 async function writePlanFiles(dir: string, plan: PlanDocument, force: boolean): Promise<string[]> {
@@ -102,27 +118,46 @@ async function writePlanFiles(dir: string, plan: PlanDocument, force: boolean): 
   return writeOutputSet(resolve(dir), files, { planId: plan.planId, force });
 }
 
-const optionField = { '--seed': 'seed', '--runs': 'runs', '--criterion': 'criterion', '--starts': 'starts' } as const;
+/** The study key each overriding option stands for, as core names it in its errors. */
+const OPTION_KEYS = {
+  seed: { name: '--seed', key: 'design.seed' },
+  runs: { name: '--runs', key: 'design.runs' },
+  centreRuns: { name: '--centre-runs', key: 'design.centreRuns' },
+  holdoutRuns: { name: '--holdout-runs', key: 'design.holdoutRuns' },
+  criterion: { name: '--criterion', key: 'design.criterion' },
+  starts: { name: '--starts', key: 'design.starts' },
+  aggregate: { name: '--aggregate', key: 'policy.aggregate' },
+  critical: { name: '--critical', key: 'policy.critical' },
+  moderate: { name: '--moderate', key: 'policy.moderate' },
+  interaction: { name: '--interaction', key: 'policy.interaction' },
+  confidence: { name: '--confidence', key: 'policy.confidence' },
+} as const satisfies Partial<Record<keyof PlanOptions, { name: string; key: string }>>;
 
 /** The command-line option that set the study key an error names, if one did. */
-function overridingOption(key: string | undefined, options: PlanOptions): keyof typeof optionField | null {
-  for (const option of Object.keys(optionField) as (keyof typeof optionField)[]) {
-    if (key === `design.${optionField[option]}` && options[optionField[option]] !== undefined) return option;
+function overridingOption(key: string | undefined, options: PlanOptions): { name: string; value: string } | null {
+  for (const [field, option] of Object.entries(OPTION_KEYS) as [keyof typeof OPTION_KEYS, (typeof OPTION_KEYS)[keyof typeof OPTION_KEYS]][]) {
+    const value = options[field];
+    if (key === option.key && value !== undefined) return { name: option.name, value };
   }
   return null;
 }
 
-function applyOverrides(study: Study, options: PlanOptions): Study {
-  const design = { ...study.design };
+/** The `design` keys the options set, each checked on the same terms as the study key. */
+function designOptionOverrides(options: PlanOptions): Partial<DesignSettings> {
+  const design: Partial<DesignSettings> = {};
   if (options.seed !== undefined) design.seed = integerOption('--seed', options.seed, 0, MAX_SEED);
   if (options.starts !== undefined) design.starts = integerOption('--starts', options.starts, 1);
   if (options.runs !== undefined) design.runs = options.runs === 'auto' ? 'auto' : integerOption('--runs', options.runs, 1);
+  if (options.centreRuns !== undefined) design.centreRuns = integerOption('--centre-runs', options.centreRuns, 0);
+  if (options.holdoutRuns !== undefined) {
+    design.holdoutRuns = options.holdoutRuns === 'auto' ? 'auto' : integerOption('--holdout-runs', options.holdoutRuns, 0);
+  }
   if (options.criterion !== undefined) {
     const criterion = options.criterion.toUpperCase();
     if (!isCriterion(criterion)) throw new InputError(`--criterion must be D or I, not ${options.criterion}`);
     design.criterion = criterion;
   }
-  return { ...study, design };
+  return design;
 }
 
 /** A written file relative to the working folder, or absolute when that would climb out of it. */

@@ -3,6 +3,7 @@
  * how many runs, how good the plan is and relative to what, and what it saves.
  */
 import type { PlanDocument } from '../core/plan/planDocument.js';
+import { counted } from '../core/countedNoun.js';
 import { formatNumber, renderTable } from '../io/textTable.js';
 
 export function planSummary(plan: PlanDocument): string {
@@ -39,7 +40,7 @@ export function planSummary(plan: PlanDocument): string {
   const centre = count('centre');
   const holdout = count('holdout');
   lines.push(
-    `Runs: ${metrics.N} fitting + ${centre} centre replicates + ${holdout} holdout (validation only, not used for fitting) = ${plan.runs.length} ` +
+    `Runs: ${metrics.N} fitting + ${counted(centre, 'centre replicate')} + ${holdout} holdout (validation only, not used for fitting) = ${plan.runs.length} ` +
       `(${metrics.runsNote})`,
   );
   lines.push(`D-efficiency, textbook form 100·|X'X|^(1/p)/N in coded units: ${formatNumber(metrics.dEfficiency, 3)} %`);

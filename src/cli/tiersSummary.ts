@@ -7,6 +7,7 @@ import type { Study } from '../core/study.js';
 import type { FactorTier, SweepRow, TierResult } from '../core/sensitivity/tierTypes.js';
 import { formatNumber, renderTable, type TextCell } from '../io/textTable.js';
 import type { Painter } from '../io/terminalStyle.js';
+import { counted } from '../core/countedNoun.js';
 
 const BORDERLINE_MARK = '*';
 
@@ -32,7 +33,7 @@ export function tiersSummary(study: Pick<Study, 'title' | 'responses' | 'interac
   const responseNote =
     policy.aggregate === 'weighted'
       ? `weights ${study.responses.map((response) => `${response.id} ${formatNumber(response.weight)}`).join(', ')}`
-      : `${responseCount} response${responseCount === 1 ? '' : 's'}`;
+      : counted(responseCount, 'response');
   out.push(
     `Total Sobol' index, ${AGGREGATE_WORDS[policy.aggregate]} (${responseNote}); ` +
       `critical ≥ ${cutoff(policy.critical)}, moderate ≥ ${cutoff(policy.moderate)}, ` +
@@ -119,14 +120,14 @@ export function tiersSummary(study: Pick<Study, 'title' | 'responses' | 'interac
           entry.action === 'estimate' ? 'estimate precisely (lab fit or dedicated test)' : 'take a literature or nominal value',
         ]),
       ).trimEnd(),
-      `${calibration.estimate} of ${calibration.entries.length} parameters need precise estimation; ` +
+      `${calibration.estimate} of ${counted(calibration.entries.length, 'parameter')} ${calibration.estimate === 1 ? 'needs' : 'need'} precise estimation; ` +
         `characterisation work avoided for ${calibration.literature}.`,
     );
   }
 
   out.push('', paint.bold('Threshold sweep (how the tier counts move with each cut-off; the other held at the policy value)'));
   const factorCount = result.factors.length;
-  out.push(`Counts cover all ${factorCount} factors as critical / moderate / negligible; operating and model split beside.`);
+  out.push(`Counts cover ${factorCount === 1 ? 'the one factor' : `all ${factorCount} factors`} as critical / moderate / negligible; operating and model split beside.`);
   for (const swept of ['critical', 'moderate'] as const) {
     const rows = result.sweep.filter((row) => row.swept === swept);
     if (rows.length === 0) continue;

@@ -65,10 +65,10 @@ export interface InteractionRow {
   index: number;
 }
 
-/** How indices combine over responses (`policy.aggregate`, `tiers --aggregate`). */
+/** How indices combine over the responses; the one list the study reader and the options check against. */
 export const AGGREGATE_RULES = ['mean', 'max', 'weighted'] as const;
 export type AggregateRule = (typeof AGGREGATE_RULES)[number];
-/** What the tiers are decided on (`policy.confidence`, `tiers --confidence`). */
+/** What a factor is tiered on: the estimate (`point`) or its upper confidence bound (`upper`). */
 export const CONFIDENCE_POLICIES = ['point', 'upper'] as const;
 export type ConfidencePolicy = (typeof CONFIDENCE_POLICIES)[number];
 

@@ -156,6 +156,41 @@ export async function readIndexTable(path: string, file: string, ids: StudyIds):
   return { rows, warnings };
 }
 
+/**
+ * The factor and response ids an index table names, in the order they first appear, for a
+ * study written from the table (`tierplan init`). The whole table is then read as a study
+ * would read it, so a table the study could not use is refused now, not after the skeleton
+ * has been filled in; `idProblem` says why an id cannot be a study id.
+ */
+export async function indexTableIds(
+  path: string,
+  file: string,
+  idProblem: (id: string) => string | undefined,
+): Promise<StudyIds & { warnings: string[] }> {
+  const table = await readTableRows(path, file, ['indices']);
+  if (table.format === 'json') requireDataRows(table, '');
+  const columns = mapColumns(table, INDEX_COLUMN_ALIASES, ['factor', 'response', 'first', 'total']);
+  requireDataRows(table, '');
+  const factorIds: string[] = [];
+  const responseIds: string[] = [];
+  for (const row of table.rows) {
+    for (const [column, kind, ids] of [
+      [columns.factor, 'factor', factorIds],
+      [columns.response, 'response', responseIds],
+    ] as const) {
+      const cell = row.cells[column];
+      if (cell === null) throw new InputError(`is empty; a ${kind} id is required`, cellLocation(table, row, column));
+      const id = String(cell).trim();
+      if (ids.includes(id)) continue;
+      const problem = idProblem(id);
+      if (problem !== undefined) throw new InputError(`${problem}; rename it in the table`, cellLocation(table, row, column));
+      ids.push(id);
+    }
+  }
+  const { warnings } = await readIndexTable(path, file, { factorIds, responseIds });
+  return { factorIds, responseIds, warnings };
+}
+
 /** Reads the second-order table at `path`; `indices` (already read) bounds each pair. */
 export async function readInteractionTable(
   path: string,

@@ -52,90 +52,144 @@ const IDENTIFIER = /^[A-Za-z][A-Za-z0-9_]*$/;
 
 // ------------------------------------------------------------------------------- schema
 
-const limitsSchema = z.strictObject({ low: z.number(), high: z.number() });
+/**
+ * What `tierplan init` writes where only the user knows the value. The schema refuses it
+ * everywhere, so an unfilled skeleton stops at the first placeholder with "fill in …".
+ */
+export const PLACEHOLDER = 'TODO';
+const NOT_PLACEHOLDER = new RegExp(`^(?!\\s*${PLACEHOLDER}\\s*$)`);
+
+/** Text the user must write themselves (a placeholder left in it is refused). */
+const filledText = () => z.string().regex(NOT_PLACEHOLDER, { error: 'fill in the text' });
+
+const limitsSchema = z
+  .strictObject({
+    low: z.number().describe('lowest setting the equipment is rated for, in the factor\'s unit'),
+    high: z.number().describe('highest setting the equipment is rated for, in the factor\'s unit'),
+  })
+  .describe('the equipment\'s rated range; a planned setting outside it is refused');
 
 const factorSchema = z.strictObject({
-  id: z.string(),
-  name: z.string().min(1),
-  unit: z.string(),
-  role: z.enum(['operating', 'model']),
-  low: z.number(),
-  high: z.number(),
-  nominal: z.number(),
-  precision: z.number().positive().optional(),
+  id: z.string().describe('identifier used in the index tables, constraints and model terms: a letter, then letters, digits or _'),
+  name: filledText().min(1).describe('readable name, shown on the run sheets and the report'),
+  unit: filledText().describe('engineering unit of low, high and nominal, e.g. °C or kg/h; "-" when it has none'),
+  role: z.enum(['operating', 'model']).describe('operating: a setting the lab can vary; model: a parameter of the process model'),
+  low: z.number().describe('low end of the range the sensitivity analysis covered, in the factor\'s unit'),
+  high: z.number().describe('high end of that range, above low'),
+  nominal: z.number().describe('usual setting or value, between low and high; negligible factors are fixed here'),
+  precision: z.number().positive().optional().describe('smallest settable step; settings are rounded to a multiple of it'),
   limits: limitsSchema.optional(),
   levels: z
     .union([z.number().int().min(2), z.array(z.number()).min(2)], {
       error: 'must be a level count (a whole number ≥ 2) or a list of at least 2 level values',
     })
-    .optional(),
-  hardToChange: z.boolean().optional(),
+    .optional()
+    .describe('a level count, or the level values, instead of the count the tier gives'),
+  hardToChange: z.boolean().optional().describe('true when changing the setting is slow or costly: runs sharing it are kept together'),
 });
 
 const responseSchema = z.strictObject({
-  id: z.string(),
-  name: z.string().min(1),
-  unit: z.string(),
-  weight: z.number().positive().optional(),
+  id: z.string().describe('identifier used in the index tables: a letter, then letters, digits or _'),
+  name: filledText().min(1).describe('readable name, shown on the run sheets and the report'),
+  unit: filledText().describe('unit the response is measured in; "-" when it has none'),
+  weight: z.number().positive().optional().describe('relative weight under the weighted aggregate (default 1)'),
 });
 
-const policySchema = z.strictObject({
-  aggregate: z.enum(AGGREGATE_RULES).optional(),
-  critical: z.number().optional(),
-  moderate: z.number().optional(),
-  interaction: z.number().optional(),
-  confidence: z.enum(CONFIDENCE_POLICIES).optional(),
-});
+const policySchema = z
+  .strictObject({
+    aggregate: z.enum(AGGREGATE_RULES).optional().describe('how indices combine over the responses (default mean)'),
+    critical: z.number().optional().describe('aggregated total index at or above which a factor is critical (default 0.30)'),
+    moderate: z.number().optional().describe('aggregated total index at or above which a factor is moderate (default 0.05)'),
+    interaction: z.number().optional().describe('second-order index at or above which a pair earns an interaction term (default 0.05)'),
+    confidence: z.enum(CONFIDENCE_POLICIES).optional().describe('tier on the estimate (point, default) or the upper confidence bound (upper)'),
+  })
+  .describe('the tier cut-offs');
 
-const levelsSchema = z.strictObject({
-  critical: z.number().int().min(2).optional(),
-  moderate: z.number().int().min(2).optional(),
-});
+const levelsSchema = z
+  .strictObject({
+    critical: z.number().int().min(2).optional().describe('levels of a critical factor (default 4)'),
+    moderate: z.number().int().min(2).optional().describe('levels of a moderate factor (default 3)'),
+  })
+  .describe('level counts per tier');
 
-const designSchema = z.strictObject({
-  runs: z.union([z.number().int().min(1), z.literal('auto')], { error: 'must be a whole number of runs (≥ 1) or "auto"' }).optional(),
-  model: z
-    .union([z.enum(MODEL_PRESETS), z.array(z.string().min(1)).min(1)], {
-      error: 'must be "linear", "interactions", "quadratic" or a list of model terms such as [inlet_temp, inlet_temp*feed_rate]',
-    })
-    .optional(),
-  criterion: z.enum(CRITERIA).optional(),
-  centreRuns: z.number().int().min(0).optional(),
-  holdoutRuns: z.union([z.number().int().min(0), z.literal('auto')], { error: 'must be a whole number of runs (≥ 0) or "auto"' }).optional(),
-  // 32-bit generators: a larger seed would silently repeat a smaller one's design.
-  seed: z.number().int().min(0).max(4294967295).optional(),
-  levels: levelsSchema.optional(),
-  starts: z.number().int().min(1).optional(),
-});
+const designSchema = z
+  .strictObject({
+    runs: z
+      .union([z.number().int().min(1), z.literal('auto')], { error: 'must be a whole number of runs (≥ 1) or "auto"' })
+      .optional()
+      .describe('fitting runs, not counting centre or holdout runs, or auto (default)'),
+    model: z
+      .union([z.enum(MODEL_PRESETS), z.array(z.string().min(1)).min(1)], {
+        error: 'must be "linear", "interactions", "quadratic" or a list of model terms such as [inlet_temp, inlet_temp*feed_rate]',
+      })
+      .optional()
+      .describe('linear, interactions, quadratic or a list of terms; derived from the tiers when absent'),
+    criterion: z.enum(CRITERIA).optional().describe('D (default) or I optimality'),
+    centreRuns: z.number().int().min(0).optional().describe('replicate runs at the centre point (default 3)'),
+    holdoutRuns: z
+      .union([z.number().int().min(0), z.literal('auto')], { error: 'must be a whole number of runs (≥ 0) or "auto"' })
+      .optional()
+      .describe('validation runs kept out of the fit, or auto (default, about a fifth of the fitting runs)'),
+    // 32-bit generators: a larger seed would silently repeat a smaller one's design.
+    seed: z.number().int().min(0).max(4294967295).optional().describe('random seed of the search and the run order (default 1)'),
+    levels: levelsSchema.optional(),
+    starts: z.number().int().min(1).optional().describe('random starts of the exchange search (default 20)'),
+  })
+  .describe('the design search');
 
-const sessionsSchema = z.strictObject({
-  maxRuns: z.number().int().min(1),
-  label: z.string().min(1).optional(),
-});
+const sessionsSchema = z
+  .strictObject({
+    maxRuns: z.number().int().min(1).describe('most runs in one session (day, shift or batch)'),
+    label: z.string().min(1).optional().describe('what a session is called on the run sheet (default Session)'),
+  })
+  .describe('how the runs are split into sessions');
 
-const levelChangeSchema = z.strictObject({ cost: z.number().min(0), hours: z.number().min(0) });
+const levelChangeSchema = z
+  .strictObject({
+    cost: z.number().min(0).describe('extra cost of one change, in the currency'),
+    hours: z.number().min(0).describe('extra bench hours of one change'),
+  })
+  .describe('extra cost and time of each change of a hard-to-change setting');
 
-const costsSchema = z.strictObject({
-  currency: z.string().min(1),
-  perRun: z.number().positive(),
-  hoursPerRun: z.number().positive(),
-  perLevelChange: levelChangeSchema.optional(),
-});
+const costsSchema = z
+  .strictObject({
+    currency: filledText().min(1).describe('currency code or word the costs are in, e.g. EUR'),
+    perRun: z.number().positive().describe('cost of one run'),
+    hoursPerRun: z.number().positive().describe('bench hours of one run'),
+    perLevelChange: levelChangeSchema.optional(),
+  })
+  .describe('what a run costs, for the comparison and the report');
 
-const studySchema = z.strictObject({
-  title: z.string().min(1),
-  factors: z.array(factorSchema).min(1),
-  responses: z.array(responseSchema).min(1),
-  indices: z.string().min(1),
-  interactions: z.string().min(1).optional(),
-  policy: policySchema.optional(),
-  design: designSchema.optional(),
-  constraints: z.array(z.string().min(1)).optional(),
-  sessions: sessionsSchema.optional(),
-  costs: costsSchema.optional(),
-});
+const studySchema = z
+  .strictObject({
+    title: filledText().min(1).describe('shown on every output'),
+    factors: z.array(factorSchema).min(1).describe('every factor of the sensitivity analysis: operating settings and model parameters'),
+    responses: z.array(responseSchema).min(1).describe('the responses the indices are given for'),
+    indices: z.string().min(1).describe('first-order and total index table (CSV, XLSX or JSON), relative to this file'),
+    interactions: z.string().min(1).optional().describe('second-order index table, relative to this file'),
+    policy: policySchema.optional(),
+    design: designSchema.optional(),
+    constraints: z
+      .array(z.string().min(1))
+      .optional()
+      .describe('conditions every run must meet, over factor ids in engineering units, e.g. feed_rate <= 0.2 * inlet_temp - 18'),
+    sessions: sessionsSchema.optional(),
+    costs: costsSchema.optional(),
+  })
+  .describe('A tierplan study: the factors and responses of a global sensitivity analysis, its index tables, and how to plan the lab campaign.');
 
 type StudyDocument = z.infer<typeof studySchema>;
+
+/**
+ * The study file's JSON Schema (draft 2020-12), generated from the validator so the two cannot
+ * drift; `schema/study.schema.json` is this, written by `npm run schema`. It checks shapes,
+ * types and key names as an editor types; the cross-field rules (low < high, …) stay here.
+ */
+export function studyJsonSchema(): Record<string, unknown> {
+  const { $schema, ...rest } = z.toJSONSchema(studySchema) as Record<string, unknown>;
+  return { $schema, title: 'tierplan study file', ...rest };
+}
+
 
 /** Valid keys of each object in the file, by key path with list indices written `[]`. */
 const KEYS_AT: Readonly<Record<string, readonly string[]>> = {
@@ -259,9 +313,11 @@ function issueMessage(issue: z.core.$ZodIssue): string {
   const full = typeof input === 'string' ? `"${input}"` : JSON.stringify(input) ?? String(input);
   // Keep the one-line message short when a whole mapping or list stands where a value belongs.
   const shown = full.length > 60 ? `${full.slice(0, 57)}…` : full;
+  // A missing key reaches zod as `undefined` whatever its type (an enum reports invalid_value).
+  if (input === undefined) return 'is required';
+  if (typeof input === 'string' && input.trim() === PLACEHOLDER) return `fill in ${placeholderWanted(issue)} (in place of ${PLACEHOLDER})`;
   switch (issue.code) {
     case 'invalid_type': {
-      if (input === undefined) return 'is required';
       if (issue.expected === 'number' && typeof input === 'number') return 'must be a finite number';
       const wanted: Record<string, string> = {
         number: 'a number',
@@ -290,7 +346,23 @@ function issueMessage(issue: z.core.$ZodIssue): string {
   }
 }
 
+/** What belongs where a placeholder was left: "a number", "one of "operating", "model"", "the text". */
+function placeholderWanted(issue: z.core.$ZodIssue): string {
+  if (issue.code === 'invalid_type') return issue.expected === 'number' ? 'a number' : `a value (${issue.expected})`;
+  if (issue.code === 'invalid_value') return `one of ${issue.values.map((value) => `"${String(value)}"`).join(', ')}`;
+  return 'the text';
+}
+
 // ---------------------------------------------------------------------- cross-field rules
+
+/** Why `id` cannot name a factor or a response, or undefined when it can. */
+export function idProblem(id: string): string | undefined {
+  if (!IDENTIFIER.test(id)) {
+    return `"${id}" is not a usable id: start with a letter, then letters, digits or "_" (ids are written in constraints and model terms)`;
+  }
+  if (RESERVED_WORDS.has(id)) return `"${id}" is reserved in constraint expressions; choose another id`;
+  return undefined;
+}
 
 type CheckedStudy = Omit<Study, 'indices' | 'interactions' | 'source' | 'warnings'>;
 
@@ -301,10 +373,8 @@ function checkStudyRules(data: StudyDocument, file: string): { study: CheckedStu
   };
 
   const checkId = (id: string, key: string, seen: Map<string, number>, list: string): void => {
-    if (!IDENTIFIER.test(id)) {
-      fail(key, `"${id}" is not a usable id: start with a letter, then letters, digits or "_" (ids are written in constraints and model terms)`);
-    }
-    if (RESERVED_WORDS.has(id)) fail(key, `"${id}" is reserved in constraint expressions; choose another id`);
+    const problem = idProblem(id);
+    if (problem !== undefined) fail(key, problem);
     const earlier = seen.get(id);
     if (earlier !== undefined) fail(key, `id "${id}" is already used by ${list}[${earlier}]; ids must be unique`);
   };

@@ -9,17 +9,14 @@
  * - The CSV has one row per factor, in study order, with a header row of snake_case names;
  *   per-response total indices follow as `total_<response id>` columns. Text cells are
  *   quoted and guarded against formula injection (`csvCell.ts`); numbers are plain.
- * - A file is written to a temporary name in the same folder and renamed into place, so a
- *   reader never sees half a file and a failure leaves nothing behind.
- * - The study file and its index tables are never overwritten: `--out indices.csv` is a
- *   slip of the keyboard that would destroy the sensitivity analysis the decision rests on.
+ * - The file is written whole or not at all and never over the study file or its index
+ *   tables (singleFileOutput.ts); an earlier export is replaced.
  */
-import { randomBytes } from 'node:crypto';
-import { realpath, rename, stat, unlink, writeFile } from 'node:fs/promises';
-import { basename, dirname, extname, join, resolve } from 'node:path';
+import { extname } from 'node:path';
 import { InputError } from '../core/inputError.js';
 import type { TierResult } from '../core/sensitivity/tierTypes.js';
 import { csvCell, type CsvValue } from './csvCell.js';
+import { writeSingleFile } from './singleFileOutput.js';
 
 export type TierExportFormat = 'csv' | 'json';
 
@@ -112,39 +109,9 @@ export async function writeTierExport(
   inputFiles: readonly string[] = [],
 ): Promise<void> {
   const format = tierExportFormat(path);
-  const target = await sameFileKey(path);
-  for (const input of inputFiles) {
-    if ((await sameFileKey(input)) === target) {
-      throw new InputError('is an input of the study (the study file or one of its index tables); choose another --out file', { file: path });
-    }
-  }
   const content = format === 'json' ? `${JSON.stringify(document, null, 2)}\n` : tierCsv(result, responseIds);
-  const folder = dirname(path);
-  try {
-    const info = await stat(folder);
-    if (!info.isDirectory()) throw new InputError('is not a folder', { file: folder });
-  } catch (error) {
-    if (error instanceof InputError) throw error;
-    throw new InputError('folder does not exist; create it first', { file: folder });
-  }
-  if (await stat(path).then((info) => info.isDirectory(), () => false)) {
-    throw new InputError('is a folder; give a file name ending in .csv or .json', { file: path });
-  }
-  const temporary = join(folder, `.${basename(path)}.${randomBytes(6).toString('hex')}.tmp`);
-  try {
-    await writeFile(temporary, content, { encoding: 'utf8', flag: 'wx' });
-    await rename(temporary, path);
-  } catch (error) {
-    await unlink(temporary).catch(() => {});
-    // Any file-system refusal (no permission, a folder in the way, a full or read-only disk) is
-    // the user's to fix, like the plan writer's; anything without an error code is our bug.
-    const code = (error as NodeJS.ErrnoException).code;
-    if (typeof code === 'string') throw new InputError(`cannot write here (${code}); nothing was written`, { file: path });
-    throw error;
-  }
-}
-
-/** The resolved path, through symbolic links when the file exists, so two names of one file compare equal. */
-async function sameFileKey(path: string): Promise<string> {
-  return realpath(path).catch(() => resolve(path));
+  await writeSingleFile(path, content, {
+    inputs: { files: inputFiles, described: 'the study (the study file or one of its index tables)' },
+    extensions: '.csv or .json',
+  });
 }

@@ -34,6 +34,7 @@ import type { ComparatorId, ComparatorRow, Comparison } from './comparisonTypes.
 import { buildComparators, runPlacement, type ComparatorDesign } from './comparators.js';
 import { campaignCost, groupedLevelChanges } from './campaignCost.js';
 import { comparatorVerdict, comparisonSummary, proposedVerdict } from './verdict.js';
+import { comparatorLabel } from './comparatorNames.js';
 
 export interface ComparisonOptions {
   /** Effect size in σ units for the power figures (default 2). */
@@ -87,7 +88,7 @@ export function buildComparison(plan: ComparisonInput, options: ComparisonOption
       ? null
       : (plan.schedule?.hardToChange?.levelChanges ??
         groupedLevelChanges(allPoints, hardToChange, (id) => variedIds.indexOf(id)));
-  const proposedRow = row('proposed', proposedLabel(fitPoints.length - centreRuns, centreRuns, holdoutRuns), plan.runs.length, proposedEvaluation, proposedChanges);
+  const proposedRow = row('proposed', comparatorLabel.proposed(fitPoints.length - centreRuns, centreRuns, holdoutRuns), plan.runs.length, proposedEvaluation, proposedChanges);
   Object.assign(proposedRow, runPlacement(region, allPoints));
   const verdictContext = { currency: costs?.currency ?? null, termCount: modelTerms.length, delta };
   proposedRow.verdict = proposedVerdict(proposedRow, fitPoints.length, holdoutRuns, verdictContext);
@@ -282,8 +283,4 @@ function addSavings(target: ComparatorRow, proposed: Pick<ComparatorRow, 'runs' 
     target.costSaved = target.cost - proposed.cost;
     target.percentCostSaved = target.cost > 0 ? (100 * target.costSaved) / target.cost : null;
   }
-}
-
-function proposedLabel(fit: number, centre: number, holdout: number): string {
-  return `Optimal exact design: ${fit} model runs + ${centre} centre + ${holdout} holdout runs`;
 }

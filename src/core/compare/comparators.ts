@@ -31,6 +31,8 @@ import { boxBehnken } from '../classical/boxBehnken.js';
 import { fullGrid } from '../classical/fullGrid.js';
 import { groupedLevelChanges } from './campaignCost.js';
 import { toEngineering } from '../region/codedUnits.js';
+import { comparatorLabel, romanNumeral } from './comparatorNames.js';
+import { counted } from '../countedNoun.js';
 
 /** Largest two-level cube (full factorial, conventional plan, composite cube) built point by point. */
 const MAX_CONVENTIONAL_FACTORS = 16;
@@ -83,10 +85,6 @@ export function buildComparators(context: ComparatorContext): ComparatorDesign[]
   return designs;
 }
 
-function centreText(c: number): string {
-  return c === 0 ? 'no centre runs' : `${c} centre run${c === 1 ? '' : 's'}`;
-}
-
 function withCentres(points: number[][], k: number, c: number): number[][] {
   return [...points, ...Array.from({ length: c }, () => new Array<number>(k).fill(0))];
 }
@@ -112,7 +110,7 @@ function conventional(context: ComparatorContext): ComparatorDesign {
   const K = context.operatingIds.length;
   const k = context.variedIds.length;
   const c = context.centreRuns;
-  const label = `Two-level full factorial over all ${K} operating factors + ${centreText(c)}`;
+  const label = comparatorLabel.conventional(K, c);
   if (K > MAX_CONVENTIONAL_FACTORS) return unbuilt('conventional', label, `2^${K} = ${2 ** K} runs is too large to build and evaluate`);
   const all = withCentres(twoLevelFullFactorial(K), K, c);
   const columns = context.variedIds.map((id) => context.operatingIds.indexOf(id));
@@ -120,7 +118,7 @@ function conventional(context: ComparatorContext): ComparatorDesign {
   const levelChanges =
     context.hardToChange.length > 0 ? groupedLevelChanges(all, context.hardToChange, (id) => context.operatingIds.indexOf(id)) : null;
   const extra = K - k;
-  const notes = extra > 0 ? [`varies ${extra} factor${extra === 1 ? '' : 's'} the model does not need`] : [];
+  const notes = extra > 0 ? [`varies ${counted(extra, 'factor')} the model does not need`] : [];
   const offLimits = context.conventionalRegion
     ? { offLimitsRuns: all.filter((x) => !context.conventionalRegion!.isFeasible(x)).length, runsOutsideRange: 0 }
     : runPlacement(context.region, points);
@@ -130,7 +128,7 @@ function conventional(context: ComparatorContext): ComparatorDesign {
 function fullFactorial(context: ComparatorContext): ComparatorDesign {
   const k = context.variedIds.length;
   const c = context.centreRuns;
-  const label = `Two-level full factorial over the ${k} varied factors + ${centreText(c)}`;
+  const label = comparatorLabel.fullFactorial(k, c);
   if (k > MAX_CONVENTIONAL_FACTORS) return unbuilt('full-factorial', label, `2^${k} = ${2 ** k} runs is too large to build and evaluate`);
   return finish(context, {
     id: 'full-factorial',
@@ -143,19 +141,19 @@ function fractional(context: ComparatorContext): ComparatorDesign {
   const k = context.variedIds.length;
   const c = context.centreRuns;
   const minResolution = context.hasInteractions ? 5 : 4;
-  const roman = minResolution === 5 ? 'V' : 'IV';
+  const roman = romanNumeral(minResolution);
   const fraction = minimumAberrationFraction(k, minResolution);
   if (!fraction) {
     return unbuilt(
       'fractional',
-      `Regular two-level fraction of resolution ${roman} or higher + ${centreText(c)}`,
+      comparatorLabel.fractionNotFound(minResolution, c),
       `no regular fraction of ${k} factors reaches resolution ${roman}`,
     );
   }
   const label =
     fraction.p === 0
-      ? `No smaller regular fraction of ${k} factors reaches resolution ${roman}: the full 2^${k} + ${centreText(c)}`
-      : `2^(${k}−${fraction.p}) fraction, resolution ${romanNumeral(fraction.resolution)} (${fraction.generators.join(', ')}) + ${centreText(c)}`;
+      ? comparatorLabel.fractionIsFull(k, minResolution, c)
+      : comparatorLabel.fraction(k, fraction.generators, fraction.resolution, c);
   return finish(context, {
     id: 'fractional',
     label,
@@ -171,11 +169,11 @@ function plackettBurman(context: ComparatorContext): ComparatorDesign {
   const c = context.centreRuns;
   const screening = smallestPlackettBurman(k);
   if (!screening) {
-    return unbuilt('plackett-burman', `Plackett–Burman screening plan + ${centreText(c)}`, `no Plackett–Burman plan of 12, 20 or 24 runs takes ${k} factors`);
+    return unbuilt('plackett-burman', comparatorLabel.plackettBurman(null, c), `no Plackett–Burman plan of 12, 20 or 24 runs takes ${k} factors`);
   }
   return finish(context, {
     id: 'plackett-burman',
-    label: `Plackett–Burman screening plan, ${screening.runs} runs + ${centreText(c)}`,
+    label: comparatorLabel.plackettBurman(screening.runs, c),
     points: withCentres(screening.points, k, c),
   });
 }
@@ -183,10 +181,9 @@ function plackettBurman(context: ComparatorContext): ComparatorDesign {
 function grid(context: ComparatorContext): ComparatorDesign {
   const counts = context.plannedLevels.map((levels) => levels.length);
   const size = counts.reduce((a, b) => a * b, 1);
-  const shape = counts.join('×');
   // The full grid is built point by point: no larger than a region enumerates.
   if (size > ENUMERATION_LIMIT) {
-    return unbuilt('full-grid', `Every combination of the planned levels (${shape})`, `${size} combinations is too large to build and evaluate`);
+    return unbuilt('full-grid', comparatorLabel.fullGrid(counts), `${size} combinations is too large to build and evaluate`);
   }
   const all = fullGrid(context.plannedLevels);
   const region = context.region;
@@ -199,7 +196,7 @@ function grid(context: ComparatorContext): ComparatorDesign {
     : 'constraints ignored';
   return finish(context, {
     id: 'full-grid',
-    label: `Every combination of the planned levels (${shape}), ${constraintText}, no extra centre runs`,
+    label: comparatorLabel.fullGrid(counts, constraintText),
     points,
   });
 }
@@ -210,8 +207,8 @@ function responseSurfacePlans(context: ComparatorContext): ComparatorDesign[] {
   if (k > MAX_CONVENTIONAL_FACTORS) {
     const reason = `its 2^${k} = ${2 ** k}-run cube is too large to build and evaluate`;
     return [
-      unbuilt('ccd-face', 'Face-centred central composite', reason),
-      unbuilt('ccd-rotatable', 'Rotatable central composite', reason),
+      unbuilt('ccd-face', comparatorLabel.ccdFace(), reason),
+      unbuilt('ccd-rotatable', comparatorLabel.ccdRotatable(), reason),
       responseSurfaceBoxBehnken(context),
     ];
   }
@@ -219,12 +216,12 @@ function responseSurfacePlans(context: ComparatorContext): ComparatorDesign[] {
   const rotatable = centralComposite(k, 'rotatable', c);
   const alphaText = String(Number(rotatable.alpha.toFixed(3)));
   const designs: ComparatorDesign[] = [
-    finish(context, { id: 'ccd-face', label: `Face-centred central composite + ${centreText(c)}`, points: face.points }),
+    finish(context, { id: 'ccd-face', label: comparatorLabel.ccdFace(c), points: face.points }),
     finish(
       context,
       {
         id: 'ccd-rotatable',
-        label: `Rotatable central composite (axial distance ${alphaText} coded) + ${centreText(c)}`,
+        label: comparatorLabel.ccdRotatable(alphaText, c),
         points: rotatable.points,
       },
       axialNotes(context, rotatable.alpha),
@@ -238,17 +235,17 @@ function responseSurfaceBoxBehnken(context: ComparatorContext): ComparatorDesign
   const k = context.variedIds.length;
   const c = context.centreRuns;
   const bbd = boxBehnken(k, c);
-  if (bbd.points === null) return unbuilt('box-behnken', 'Box–Behnken', 'reason' in bbd ? bbd.reason : `no Box–Behnken plan for ${k} factors`);
-  return finish(context, { id: 'box-behnken', label: `Box–Behnken + ${centreText(c)}`, points: bbd.points });
+  if (bbd.points === null) return unbuilt('box-behnken', comparatorLabel.boxBehnken(), 'reason' in bbd ? bbd.reason : `no Box–Behnken plan for ${k} factors`);
+  return finish(context, { id: 'box-behnken', label: comparatorLabel.boxBehnken(c), points: bbd.points });
 }
 
 /** Listed for a model without squared terms, so that the reader sees why they are absent. */
 function responseSurfaceNotNeeded(): ComparatorDesign[] {
   const reason = 'the model has no squared terms, and estimating curvature is what this plan is for';
   return [
-    unbuilt('ccd-face', 'Face-centred central composite', reason),
-    unbuilt('ccd-rotatable', 'Rotatable central composite', reason),
-    unbuilt('box-behnken', 'Box–Behnken', reason),
+    unbuilt('ccd-face', comparatorLabel.ccdFace(), reason),
+    unbuilt('ccd-rotatable', comparatorLabel.ccdRotatable(), reason),
+    unbuilt('box-behnken', comparatorLabel.boxBehnken(), reason),
   ];
 }
 
@@ -279,10 +276,6 @@ export function runPlacement(region: CandidateRegion | undefined, points: number
     offLimitsRuns: region ? points.filter((x) => !region.isFeasible(x)).length : 0,
     runsOutsideRange: points.filter((x) => x.some((value) => Math.abs(value) > 1 + 1e-9)).length,
   };
-}
-
-function romanNumeral(resolution: number): string {
-  return ['', 'I', 'II', 'III', 'IV', 'V', 'VI', 'VII', 'VIII', 'IX', 'X'][resolution] ?? String(resolution);
 }
 
 function round(value: number): string {

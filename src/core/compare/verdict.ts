@@ -13,6 +13,7 @@
  */
 import type { ComparatorRow, Comparison } from './comparisonTypes.js';
 import { wordList } from '../wordList.js';
+import { counted } from '../countedNoun.js';
 
 /** Power at which a term counts as reliably detected (common practice: 80 %). */
 export const GOOD_POWER = 0.8;
@@ -29,10 +30,10 @@ export interface VerdictContext {
 /** The verdict for the proposed plan's own row. */
 export function proposedVerdict(row: ComparatorRow, fittingRuns: number, holdoutRuns: number, context: VerdictContext): string {
   if (!row.fitsModel) return `Cannot estimate ${describeTerms(row.missingTerms)}: the plan does not fit its own model.`;
-  const holdout = holdoutRuns > 0 ? `, plus ${holdoutRuns} holdout run${holdoutRuns === 1 ? '' : 's'} to check predictions` : '';
+  const holdout = holdoutRuns > 0 ? `, plus ${counted(holdoutRuns, 'holdout run')} to check predictions` : '';
   const power =
     row.minPower === null ? ' No residual degrees of freedom are left to test the terms.' : ` ${powerSentence(row, context.delta)}`;
-  return `Estimates all ${context.termCount} model terms from ${fittingRuns} fitting runs${holdout}.${power}`;
+  return `Estimates ${allTerms(context.termCount)} from ${counted(fittingRuns, 'fitting run')}${holdout}.${power}`;
 }
 
 /** The verdict for a comparator row, measured against the proposed row. */
@@ -65,16 +66,16 @@ export function comparisonSummary(comparison: Omit<Comparison, 'summary'>): stri
     comparison.comparators.find((row) => row.id === 'conventional' && row.runs !== null) ??
     comparison.comparators.find((row) => row.id !== 'proposed' && row.runs !== null);
   const termCount = comparison.modelTerms.length;
-  const still = proposed.fitsModel ? `It still estimates all ${termCount} model terms` : `It cannot estimate ${describeTerms(proposed.missingTerms)}`;
+  const still = proposed.fitsModel ? `It still estimates ${allTerms(termCount)}` : `It cannot estimate ${describeTerms(proposed.missingTerms)}`;
   const power = proposed.fitsModel && proposed.minPower !== null ? ` ${powerSentence(proposed, comparison.delta)}${gridPower(comparison, proposed)}` : '';
-  if (!reference || reference.runs === null) return `The proposed plan needs ${proposed.runs} runs. ${still}.${power}`;
+  if (!reference || reference.runs === null) return `The proposed plan needs ${counted(proposed.runs, 'run')}. ${still}.${power}`;
   const name = reference.id === 'conventional' ? 'the conventional full factorial' : `the ${reference.label.charAt(0).toLowerCase()}${reference.label.slice(1)}`;
   const saved = reference.runs - proposed.runs;
   const savedText =
     saved > 0
-      ? `${saved} fewer runs (${percent(reference.percentRunsSaved ?? 0)} %)`
+      ? `${counted(saved, 'fewer run', 'fewer runs')} (${percent(reference.percentRunsSaved ?? 0)} %)`
       : saved < 0
-        ? `${-saved} more runs`
+        ? counted(-saved, 'more run', 'more runs')
         : 'as many runs';
   let money = '';
   if (reference.cost !== null && proposed.cost !== null && comparison.currency) {
@@ -90,9 +91,14 @@ export function comparisonSummary(comparison: Omit<Comparison, 'summary'>): stri
   const offLimits = reference.offLimitsRuns ?? 0;
   const referenceRunnable =
     offLimits > 0
-      ? ` Besides, ${offLimits} of the ${reference.runs} runs of ${name} ${offLimits === 1 ? 'breaks' : 'break'} the study's constraints or equipment limits.`
+      ? ` Besides, ${offLimits} of the ${counted(reference.runs, 'run')} of ${name} ${offLimits === 1 ? 'breaks' : 'break'} the study's constraints or equipment limits.`
       : '';
-  return `The proposed plan needs ${proposed.runs} runs where ${name} needs ${reference.runs}: ${savedText}${money}. ${still}${referenceFit}.${referenceRunnable}${power}`;
+  return `The proposed plan needs ${counted(proposed.runs, 'run')} where ${name} needs ${reference.runs}: ${savedText}${money}. ${still}${referenceFit}.${referenceRunnable}${power}`;
+}
+
+/** "all 13 model terms", or "the one model term" when there is only one. */
+function allTerms(count: number): string {
+  return count === 1 ? 'the one model term' : `all ${count} model terms`;
 }
 
 /** "the squared terms of a and b, the cubic term of c and the interaction a*b". */
@@ -133,7 +139,7 @@ export function powerSentence(row: ComparatorRow, delta: number): string {
       ? ':'
       : good === 0
         ? ` is detected with less than ${Math.round(GOOD_POWER * 100)} % power for every term;`
-        : ` is detected with at least ${Math.round(GOOD_POWER * 100)} % power for ${good} of the ${powers.length} terms;`;
+        : ` is detected with at least ${Math.round(GOOD_POWER * 100)} % power for ${good} of the ${counted(powers.length, 'term')};`;
   const weakestTerm = powers.find((term) => term.term === row.minPowerTerm);
   const overlap =
     weakestTerm?.vif != null && weakestTerm.vif >= OVERLAP_VIF
@@ -151,19 +157,19 @@ function gridPower(comparison: Omit<Comparison, 'summary'>, proposed: Comparator
   const grid = comparison.comparators.find((row) => row.id === 'full-grid');
   if (proposed.minPower === null || proposed.minPower >= GOOD_POWER || !grid?.fitsModel || grid.minPower === null) return '';
   const term = grid.minPowerTerm ? `, weakest ${grid.minPowerTerm}` : '';
-  return ` Running every combination of the planned levels (${grid.runs} runs) would reach ${percent(grid.minPower * 100)} %${term}.`;
+  return ` Running every combination of the planned levels (${counted(grid.runs ?? 0, 'run')}) would reach ${percent(grid.minPower * 100)} %${term}.`;
 }
 
 function offLimitsText(row: ComparatorRow): string {
   const count = row.offLimitsRuns ?? 0;
-  return `${count} of its ${row.runs} runs ${count === 1 ? 'breaks' : 'break'} the study's constraints or equipment limits`;
+  return `${count} of its ${counted(row.runs ?? 0, 'run')} ${count === 1 ? 'breaks' : 'break'} the study's constraints or equipment limits`;
 }
 
 
 function runsText(difference: number): string {
   if (difference === 0) return 'as many runs as the proposed plan';
   const count = Math.abs(difference);
-  return `${count} ${difference > 0 ? 'more' : 'fewer'} run${count === 1 ? '' : 's'} than the proposed plan`;
+  return `${counted(count, `${difference > 0 ? 'more' : 'fewer'} run`)} than the proposed plan`;
 }
 
 function costText(row: ComparatorRow, proposed: ComparatorRow, currency: string | null): string {

@@ -18,6 +18,7 @@
 import { uniformInt } from 'pure-rand/distribution/uniformInt';
 import { InputError } from '../inputError.js';
 import { ENUMERATION_LIMIT, type CandidateRegion, type RegionAxis } from '../region/candidateRegion.js';
+import { counted } from '../countedNoun.js';
 import { settableCoded } from './levels.js';
 import { gridPoints } from '../region/gridPoints.js';
 import { createRandom, type RandomGenerator } from '../random.js';
@@ -78,7 +79,7 @@ export function chooseHoldoutRuns(
   for (const point of raw) if (region.isFeasible(point) && offFaces(region, point)) candidates.push(point);
   if (candidates.length < count && !options.atMost) {
     throw new InputError(
-      `only ${candidates.length} interior feasible points are available for ${count} holdout runs; ask for fewer`,
+      `only ${counted(candidates.length, 'interior feasible point')} ${candidates.length === 1 ? 'is' : 'are'} available for ${counted(count, 'holdout run')}; ask for fewer`,
       { key: 'design.holdoutRuns' },
     );
   }

@@ -10,23 +10,14 @@
  * the curves span more than a factor of 20.
  */
 import type { Spec } from 'vega';
-import type { ComparatorId, Comparison } from '../../core/compare/comparisonTypes.js';
+import type { Comparison } from '../../core/compare/comparisonTypes.js';
+import { COMPARATOR_SHORT_NAME } from '../../core/compare/comparatorNames.js';
 import { COMPARATOR_STYLE } from './chartPalette.js';
 import { chartSpec, seriesLines, seriesMarkers, seriesScales } from './vegaSpecParts.js';
 import { renderVegaSvg } from './vegaSvg.js';
 
-/** Short names for legends; the report table carries each plan's full label. */
-export const COMPARATOR_SHORT_NAME: Record<ComparatorId, string> = {
-  proposed: 'Proposed plan',
-  conventional: 'Conventional plan',
-  'full-factorial': 'Full factorial',
-  fractional: 'Fractional factorial',
-  'plackett-burman': 'Plackett–Burman',
-  'full-grid': 'Full grid of levels',
-  'ccd-face': 'Central composite (face-centred)',
-  'ccd-rotatable': 'Central composite (rotatable)',
-  'box-behnken': 'Box–Behnken',
-};
+// The report imports the legend names from here; their one home is comparatorNames.ts.
+export { COMPARATOR_SHORT_NAME };
 
 /** Fractions where a marker is drawn, so dashed lines keep a shape cue even when they overlap. */
 const MARKER_FRACTIONS = [0, 0.25, 0.5, 0.75, 1];
