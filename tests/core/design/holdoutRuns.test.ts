@@ -51,6 +51,13 @@ describe('chooseHoldoutRuns, worked by hand on a 3 × 3 grid', () => {
     expect(new Set(chosen.map((p) => p.join(','))).size).toBe(4);
   });
 
+  // The four diagonal midpoints tie for the first pick (symmetry of the square); the seeded
+  // tie-break must not always favour the same one, or holdouts would lean to one corner.
+  it('breaks the tie between the diagonal midpoints by the seed', () => {
+    const firsts = new Set(Array.from({ length: 24 }, (_, seed) => chooseHoldoutRuns(region, grid, 1, seed + 1)[0].join(',')));
+    expect([...firsts].sort()).toEqual(['-0.5,-0.5', '-0.5,0.5', '0.5,-0.5', '0.5,0.5']);
+  });
+
   it('is deterministic for a seed', () => {
     expect(chooseHoldoutRuns(region, grid, 3, 5)).toEqual(chooseHoldoutRuns(region, grid, 3, 5));
   });
