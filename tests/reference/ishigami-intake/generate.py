@@ -14,8 +14,13 @@ Outputs (all invented demo inputs, computed here, nothing copied):
   ishigami-intake.json   the estimates, the bounds and the closed-form indices
                          (Sobol' & Levitan 1999; Saltelli et al. 2008, The Primer, ch. 4)
 
-Run: python3 tests/reference/ishigami-intake/generate.py   (numpy + scipy)
+Run: python3 tests/reference/ishigami-intake/generate.py   (numpy 2.4 + scipy 1.17: needs
+scipy.stats.sobol_indices, scipy >= 1.11, so not Debian's /usr/bin/python3 with scipy 1.10).
+Seeded throughout, so the output is the same byte for byte on every run; the script ends by
+comparing the SHA-256 of the three files with CHECKSUMS and exits 1 when they differ (update
+CHECKSUMS only with a deliberate change of the script). CI reads the files, never Python.
 """
+import hashlib
 import json
 import math
 import pathlib
@@ -26,6 +31,11 @@ from scipy import stats
 A_COEF, B_COEF = 7.0, 0.1
 N = 2**9
 SEED = 424242
+CHECKSUMS = {
+    "indices.csv": "b734f8d0e1b4de7a235c1e209ff1f8793e8e4442ab21921354c297164e3b776d",
+    "indices-semicolon.csv": "c9a2c83197c9ac2da53fac636f426a7cacdd746bb36872d8a587ba6472d7641a",
+    "ishigami-intake.json": "bf033b05f44d96264e66c76048ac74254eb5107cfa602d4b0b5822cd614a0122",
+}
 HERE = pathlib.Path(__file__).parent
 FACTORS = ["x1", "x2", "x3"]
 
@@ -48,6 +58,9 @@ def main():
     rng = np.random.default_rng(SEED)
     dists = [stats.uniform(loc=-math.pi, scale=2 * math.pi)] * 3
     result = stats.sobol_indices(func=ishigami, n=N, dists=dists, rng=rng)
+    # SobolResult.bootstrap takes no generator: scipy.stats.bootstrap then draws from numpy's
+    # global RandomState (check_random_state(None)), so that is seeded here.
+    np.random.seed(SEED)
     boot = result.bootstrap(confidence_level=0.95, n_resamples=199)
     # one output: scipy may drop the output axis, so put it back before indexing
     first = np.atleast_2d(result.first_order)[0]
@@ -84,7 +97,13 @@ def main():
     with open(HERE / "ishigami-intake.json", "w", encoding="utf-8") as out:
         json.dump({"n": N, "seed": SEED, "rows": rows, "closedForm": closed_form()}, out, indent=2)
         out.write("\n")
+    digests = {name: hashlib.sha256((HERE / name).read_bytes()).hexdigest() for name in OUTPUTS}
+    print(json.dumps(digests, indent=2))
+    if digests != CHECKSUMS:
+        raise SystemExit("outputs changed: compare the digests above with CHECKSUMS")
 
+
+OUTPUTS = ["indices.csv", "indices-semicolon.csv", "ishigami-intake.json"]
 
 if __name__ == "__main__":
     main()
