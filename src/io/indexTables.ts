@@ -7,7 +7,7 @@
  * bounds `first_low, first_high, total_low, total_high`. Second-order indices come one row
  * per (factor pair, response): `factor_a, factor_b, response, index`.
  *
- * Conventions and tolerances fixed here (see DEVELOPERS.md, "Study file and index tables"):
+ * Conventions and tolerances fixed here:
  * - Headers are compared trimmed, case-insensitively, with spaces and hyphens read as `_`;
  *   the accepted aliases are INDEX_COLUMN_ALIASES and INTERACTION_COLUMN_ALIASES.
  * - Indices are variance fractions in [0, 1]. Monte-Carlo estimators overshoot a little, so

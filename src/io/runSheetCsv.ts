@@ -1,7 +1,7 @@
 /**
  * The run sheet as CSV, for labs that keep their records in a spreadsheet of their own.
  *
- * Layout (fixed here; documented in DEVELOPERS.md):
+ * Layout (fixed here):
  * - UTF-8 with a byte-order mark (spreadsheet programs need it to read `°C`, `µm`, `m³/h`),
  *   comma-separated, RFC 4180 quoting, CRLF line ends (the RFC's choice, read by every
  *   spreadsheet and text editor).

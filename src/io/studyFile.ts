@@ -2,7 +2,10 @@
  * Reads a study file (YAML or JSON), checks it key by key, reads the index tables it
  * names and returns the validated `Study` every later stage works from.
  *
- * Conventions fixed here (see DEVELOPERS.md, "Study file and index tables"):
+ * The schema is the zod shapes below, each key with a `.describe()`; `npm run schema` ships it
+ * as schema/study.schema.json, and the README lists the keys for users.
+ *
+ * Conventions fixed here:
  * - One schema for both syntaxes (YAML 1.2 via the `yaml` package; JSON). Validation is a
  *   zod 4 strict schema for shapes and types, then explicit cross-field checks (low < high,
  *   nominal inside the range, critical > moderate, …) so each rule has one readable message.

@@ -33,7 +33,7 @@ function sheet(seed = 20261201, edit?: (plan: ReturnType<typeof sprayDryerPlan>)
   return { plan, schedule, csv: runSheetCsv(plan, schedule) };
 }
 
-/** Header block and table, split at the first empty line as DEVELOPERS.md documents. */
+/** Header block and table, split at the first empty line as the header of src/io/runSheetCsv.ts fixes. */
 function split(csv: string) {
   expect(csv.startsWith('\uFEFF')).toBe(true);
   const body = csv.slice(1);

@@ -1,7 +1,7 @@
 /**
  * Where the centre replicates go in the sequence: evenly spaced from the first to the last run.
  *
- * Rule (fixed here, documented in DEVELOPERS.md): with c replicates in a sequence of n slots,
+ * Rule (fixed here): with c replicates in a sequence of n slots,
  * replicate k (0-based) takes slot round(k·(n − 1)/(c − 1)); one replicate takes the middle slot
  * floor((n − 1)/2). So 3 replicates open, halve and close the campaign. Spreading them this way
  * lets the centre runs double as a drift check across the campaign, which is common practice

@@ -1,8 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { spreadSlots } from '../../../src/core/schedule/centreSpread.js';
 
-// The even-spread rule is our convention (see DEVELOPERS.md, "Run order, run sheets and file
-// writing"); expected slots below are worked by hand from round(k·(n − 1)/(c − 1)).
+// The even-spread rule is our convention (header of src/core/schedule/centreSpread.ts); expected slots below are worked by hand from round(k·(n − 1)/(c − 1)).
 describe('centre replicate slots', () => {
   it('opens, halves and closes the campaign with 3 replicates', () => {
     expect(spreadSlots(3, 18)).toEqual([0, 9, 17]); // round(8.5) = 9
