@@ -95,7 +95,7 @@ describe('tierplan plan on the sample', () => {
   });
 
   it('reports logDetPerRun and dEfficiency that the fitting runs reproduce', () => {
-    // Definitions from the issue and Montgomery, Design and Analysis of Experiments (9th ed., §11.4):
+    // Definitions from Montgomery, Design and Analysis of Experiments (9th ed., §11.4):
     // logDetPerRun = ln det(X'X/N), D-efficiency = 100·|X'X|^(1/p)/N; recomputed here with ml-matrix's LU
     // from the coded runs and term strings of plan.json, not with tierplan's own Cholesky code.
     const plan = JSON.parse(readFileSync(join(out, 'plan.json'), 'utf8'));
