@@ -38,6 +38,17 @@ export class InputError extends Error {
     if (row !== undefined) parts.push(`row ${row}`);
     if (column !== undefined) parts.push(`column ${column}`);
     if (key !== undefined) parts.push(`key ${key}`);
-    return parts.length ? `${parts.join(', ')}: ${this.message}` : this.message;
+    const line = parts.length ? `${parts.join(', ')}: ${this.message}` : this.message;
+    // A file name or a key taken from the user's file may hold a line break; the message stays one line.
+    return line.replace(/[\r\n\u2028\u2029]+/g, ' ');
   }
+}
+
+/**
+ * User text short enough to quote in a one-line message: the first `max` characters, line
+ * breaks and tabs shown as spaces, "…" where it was cut.
+ */
+export function excerpt(text: string, max = 60): string {
+  const flat = text.replace(/[\r\n\t\u2028\u2029]+/g, ' ');
+  return flat.length > max ? `${flat.slice(0, max - 1)}…` : flat;
 }
