@@ -70,6 +70,13 @@ export const INPUT_LIMITS = {
     why: 'a workbook is unpacked whole in memory, about 40 times its size',
     kind: 'refusal',
   },
+  planFileBytes: {
+    value: 64 * MIB,
+    unit: 'bytes',
+    appliesTo: 'plan.json read by compare',
+    why: 'a plan echoes its study, index rows included: 200 000 rows take about 30 MB',
+    kind: 'refusal',
+  },
   tableRows: {
     value: 200_000,
     unit: 'rows',
@@ -190,9 +197,9 @@ export const INPUT_LIMITS = {
     kind: 'refusal',
   },
   searchWork: {
-    value: 4e9,
+    value: 4e8,
     unit: 'work units',
-    appliesTo: 'the design search: starts × runs × terms × (terms + level trials per run), see DEVELOPERS.md',
+    appliesTo: 'design search work: starts × the multiply-adds of one exchange pass (about runs × terms × level trials), see DEVELOPERS.md',
     why: `about ${TIME_BUDGET_SECONDS / 2} s of search on the 2-core reference machine; a larger search is refused before it starts`,
     kind: 'refusal',
   },

@@ -7,7 +7,11 @@
  * machine and on any day; `createdAt` is metadata only.
  */
 import { createHash } from 'node:crypto';
+import { readFile, stat } from 'node:fs/promises';
 import { InputError } from '../core/inputError.js';
+import { aboveLimit, limitOf } from '../core/inputLimits.js';
+import { parseJsonText } from './documentText.js';
+import { megabytes } from './tableRows.js';
 import type { PlanDocument } from '../core/plan/planDocument.js';
 
 const UNSEALED_KEYS = new Set(['checksum', 'planId', 'createdAt']);
@@ -24,6 +28,23 @@ export function sealPlan(plan: PlanDocument, createdAt: Date = new Date()): Plan
 
 export function planJson(plan: PlanDocument): string {
   return `${JSON.stringify(plan, null, 2)}\n`;
+}
+
+/**
+ * The parsed content of a plan file (any JSON, not yet checked), read within the plan-file
+ * size limit and with the JSON safety of documentText.ts (depth, repeated and reserved keys).
+ */
+export async function readPlanJson(path: string): Promise<unknown> {
+  let text: string;
+  try {
+    const info = await stat(path);
+    if (info.size > limitOf('planFileBytes')) throw new InputError(`is ${megabytes(info.size)}, ${aboveLimit('planFileBytes')}`, { file: path });
+    text = await readFile(path, 'utf8');
+  } catch (error) {
+    if (error instanceof InputError) throw error;
+    throw new InputError(`cannot read the plan file (${(error as NodeJS.ErrnoException).code ?? 'unreadable'})`, { file: path });
+  }
+  return parseJsonText(text.replace(/^\uFEFF/, ''), path);
 }
 
 /** An already parsed plan.json, refused unless it is format version 1 with a matching checksum. */
