@@ -28,6 +28,7 @@ import type ExcelJS from 'exceljs';
 import { excerpt, InputError, type InputLocation } from '../core/inputError.js';
 import { aboveLimit, checkLimit, limitOf } from '../core/inputLimits.js';
 import { parseJsonText } from './documentText.js';
+import { zipContentSize } from './zipContentSize.js';
 
 export type CellValue = string | number | null;
 
@@ -269,6 +270,11 @@ function countOutsideQuotes(line: string, separator: string): number {
 // ---------------------------------------------------------------------------------- XLSX
 
 async function readWorkbook(bytes: Uint8Array, file: string, sheetNames: readonly string[]): Promise<TableRows> {
+  const unpacked = zipContentSize(bytes);
+  if (unpacked !== null && unpacked > limitOf('workbookContentBytes')) {
+    const shown = Number.isFinite(unpacked) ? megabytes(unpacked) : 'more than 4 GB';
+    throw new InputError(`unpacks to ${shown}, ${aboveLimit('workbookContentBytes')}; export the table as CSV`, { file });
+  }
   // exceljs takes a noticeable part of a second to load; only workbook users pay for it.
   const { default: excel } = await import('exceljs');
   const workbook = new excel.Workbook();

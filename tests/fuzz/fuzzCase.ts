@@ -60,7 +60,7 @@ export async function runFuzzCase(target: FuzzTarget, input: FuzzFiles, boundMil
   const started = performance.now();
   let outcome: Omit<Outcome, 'milliseconds'>;
   try {
-    outcome = { kind: 'valid', detail: await target.run(folder, input.entry) };
+    outcome = { kind: 'valid', detail: await target.run(folder, input.entry, input) };
   } catch (error) {
     outcome = classifyError(error);
   } finally {

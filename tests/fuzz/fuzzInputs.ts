@@ -18,6 +18,8 @@ export interface FuzzFiles {
   entry: string;
   /** What was done to the valid input, for the report of a failing case. */
   mutations: string[];
+  /** For a plan-file case: the changes to make to the plan once it exists (see `mutatePlan`). */
+  planMutations?: Mutation[];
 }
 
 type Json = null | boolean | number | string | Json[] | { [key: string]: Json };
@@ -204,7 +206,7 @@ const KNOWN_KEYS = ['levels', 'limits', 'precision', 'runs', 'model', 'centreRun
 
 // ------------------------------------------------------------------ structure mutations
 
-interface Mutation {
+export interface Mutation {
   pick: number;
   op: 'set' | 'delete' | 'rename' | 'add' | 'duplicate';
   value: Json;
@@ -401,8 +403,17 @@ function applyRowMutation(header: string[], rows: (string | number | null)[][], 
 
 // -------------------------------------------------------------------------- the cases
 
-/** Which file of the study the mutations go to. */
-export type MutatedPart = 'study' | 'indices' | 'interactions';
+/**
+ * Applies plan-file mutations to a plan document (as parsed JSON) in place; returns what was
+ * done. The harness seals the result again, so the checksum matches and the reader's shape
+ * checks are what stand between the mutation and the comparison.
+ */
+export function mutatePlan(plan: Record<string, Json>, mutations: readonly Mutation[]): string[] {
+  return mutations.map((mutation) => `plan: ${applyMutation(plan, mutation)}`);
+}
+
+/** Which file of the study the mutations go to (`plan`: the plan.json that compare reads). */
+export type MutatedPart = 'study' | 'indices' | 'interactions' | 'plan';
 
 export function fuzzFilesArbitrary(part: MutatedPart): fc.Arbitrary<FuzzFiles> {
   return fc
@@ -417,7 +428,8 @@ export function fuzzFilesArbitrary(part: MutatedPart): fc.Arbitrary<FuzzFiles> {
       textMutations: fc.array(textMutationArbitrary, { minLength: 1, maxLength: 2 }),
       mutateText: fc.integer({ min: 0, max: 9 }).map((draw) => draw < 3),
     })
-    .map(({ shape, syntax, indexFormat, interactionFormat, mutations, rowMutations, textMutations, mutateText }) => {
+    .map(({ shape, syntax, indexFormat, interactionFormat, mutations, rowMutations, textMutations, mutateText: textDrawn }) => {
+      let mutateText = textDrawn;
       const done: string[] = [];
       const study = structuredClone(shape.study);
       const index = { header: [...INDEX_HEADER.slice(0, shape.indexRows[0]?.length ?? 4)], rows: shape.indexRows.map((row) => [...row]) as (string | number | null)[][] };
@@ -440,6 +452,8 @@ export function fuzzFilesArbitrary(part: MutatedPart): fc.Arbitrary<FuzzFiles> {
         study.interactions = interactionFile.path;
       }
       if (part === 'study') for (const mutation of mutations) done.push(`study: ${applyMutation(study, mutation)}`);
+      // A plan-file case keeps the study valid; its mutations wait for the plan.
+      if (part === 'plan') mutateText = false;
       const entry = syntax === 'yaml' ? 'study.yaml' : 'study.json';
       let text = syntax === 'yaml' ? stringify(study) : `${JSON.stringify(study, null, 2)}\n`;
       if (mutateText) {
@@ -454,6 +468,7 @@ export function fuzzFilesArbitrary(part: MutatedPart): fc.Arbitrary<FuzzFiles> {
         }
       }
       files[entry] = text;
+      if (part === 'plan') return { files, entry, mutations: done, planMutations: [...mutations] };
       return { files, entry, mutations: done };
     });
 }

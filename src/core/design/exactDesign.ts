@@ -93,7 +93,9 @@ export function passWork(model: CompiledModel, region: CandidateRegion, runs: nu
     // A trial also copies the row (p) and snaps every coordinate to its level in the feasibility check (about 10k).
     trials += others * (p * terms + 2 * p + 10 * k + CONSTRAINT_WORK * (region.constraintCount ?? 0));
   }
-  const fedorov = region.points === null ? 0 : Math.min(FEDOROV_BUDGET, runs * region.points.length * p * p);
+  // The point exchange runs only within its own budget (see fedorovCandidates).
+  const pointExchange = region.points === null ? Number.POSITIVE_INFINITY : runs * region.points.length * p * p;
+  const fedorov = pointExchange <= FEDOROV_BUDGET ? pointExchange : 0;
   // The fixed part covers a start's set-up: drawing its random points, sorting, bookkeeping.
   return runs * (3 * p * p + trials) + p * p * p + fedorov + START_WORK;
 }

@@ -8,8 +8,8 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { buildPlan } from '../../../src/core/plan/buildPlan.js';
-import { buildCandidateRegion } from '../../../src/core/design/candidateRegion.js';
-import { toCoded, toEngineering } from '../../../src/core/design/levels.js';
+import { buildCandidateRegion } from '../../../src/core/region/candidateRegion.js';
+import { toCoded, toEngineering } from '../../../src/core/region/codedUnits.js';
 import { defaultRunCount } from '../../../src/core/design/runCount.js';
 import { InputError } from '../../../src/core/inputError.js';
 import { DEFAULT_DESIGN, DEFAULT_POLICY, type Factor, type IndexRow, type Study } from '../../../src/core/study.js';
