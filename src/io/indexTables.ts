@@ -26,6 +26,7 @@ import type { IndexRow, InteractionRow } from '../core/study.js';
 import { excerpt, InputError, type InputLocation } from '../core/inputError.js';
 import { cellLocation, readTableRows, rowLocation, type CellValue, type TableRow, type TableRows } from './tableRows.js';
 import { didYouMean, suggestKey } from '../core/suggestKey.js';
+import { checkLimit } from '../core/inputLimits.js';
 
 export type IndexColumn = 'factor' | 'response' | 'first' | 'total' | 'first_low' | 'first_high' | 'total_low' | 'total_high';
 export type InteractionColumn = 'factor_a' | 'factor_b' | 'response' | 'index';
@@ -187,6 +188,9 @@ export async function indexTableIds(
       ids.push(id);
     }
   }
+  // The study written from these ids must be readable: the same limits as the study's lists.
+  checkLimit('factors', factorIds.length, { file }, 'factors');
+  checkLimit('responses', responseIds.length, { file }, 'responses');
   const { warnings } = await readIndexTable(path, file, { factorIds, responseIds });
   return { factorIds, responseIds, warnings };
 }

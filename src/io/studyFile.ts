@@ -389,6 +389,7 @@ function placeholderWanted(issue: z.core.$ZodIssue): string {
 
 /** Why `id` cannot name a factor or a response, or undefined when it can. */
 export function idProblem(id: string): string | undefined {
+  if (id.length > limitOf('idLength')) return `"${excerpt(id)}" is ${id.length} characters long, ${aboveLimit('idLength')}`;
   if (!IDENTIFIER.test(id)) {
     return `"${id}" is not a usable id: start with a letter, then letters, digits or "_" (ids are written in constraints and model terms)`;
   }

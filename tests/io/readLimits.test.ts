@@ -7,8 +7,8 @@
 import { writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { loadStudy } from '../../src/io/studyFile.js';
-import { readIndexTable } from '../../src/io/indexTables.js';
+import { idProblem, loadStudy } from '../../src/io/studyFile.js';
+import { indexTableIds, readIndexTable } from '../../src/io/indexTables.js';
 import { limitOf } from '../../src/core/inputLimits.js';
 import { BASE_INDICES_CSV, STUDY_IDS, expectInputError, writeFiles, writeStudy } from './studyScratch.js';
 
@@ -136,6 +136,22 @@ describe('file sizes and table rows', () => {
     await expectInputError(
       () => readIndexTable(join(folder, 'indices.csv'), 'indices.csv', STUDY_IDS),
       `indices.csv, row 2, column first: must be a number, not "9999999999x${'y'.repeat(48)}…"`,
+    );
+  });
+
+  it('init: an index table with more factors, more responses or longer ids than a study may have is refused', async () => {
+    const rows = (factors: number, responses: number) =>
+      ['factor,response,first,total', ...Array.from({ length: Math.max(factors, responses) }, (_, i) => `f${i % factors},r${i % responses},0.1,0.2`)].join('\n');
+    const folder = writeFiles({
+      'factors.csv': rows(limitOf('factors') + 1, 1),
+      'responses.csv': rows(1, limitOf('responses') + 1),
+      'long.csv': `factor,response,first,total\n${'f'.repeat(65)},r,0.1,0.2\n`,
+    });
+    await expectInputError(() => indexTableIds(join(folder, 'factors.csv'), 'factors.csv', idProblem), `factors.csv: 2001 factors is above the limit of 2000 factors ${SEE}`);
+    await expectInputError(() => indexTableIds(join(folder, 'responses.csv'), 'responses.csv', idProblem), `responses.csv: 101 responses is above the limit of 100 responses ${SEE}`);
+    await expectInputError(
+      () => indexTableIds(join(folder, 'long.csv'), 'long.csv', idProblem),
+      `long.csv, row 2, column factor: "${'f'.repeat(59)}…" is 65 characters long, above the limit of 64 characters ${SEE}; rename it in the table`,
     );
   });
 });
