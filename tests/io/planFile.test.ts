@@ -39,7 +39,7 @@ describe('sealPlan', () => {
 
 describe('checkedPlan', () => {
   it('reads back what was written', () => {
-    const sealed = sealPlan(unsealed);
+    const sealed = sealPlan(makePlanFixture());
     expect(checkedPlan(JSON.parse(planJson(sealed)), 'plan.json').checksum).toBe(sealed.checksum);
   });
 
