@@ -7,13 +7,13 @@
  * The comparison is always recomputed, so `--delta` and `--alpha` apply to a saved plan too.
  * `--out` also writes it to a .csv or .json file that records the plan's id.
  */
-import { readFile } from 'node:fs/promises';
+import { stat } from 'node:fs/promises';
 import { dirname, extname, resolve } from 'node:path';
 import type { Command } from 'commander';
 import { InputError } from '../core/inputError.js';
 import type { PlanDocument } from '../core/plan/planDocument.js';
 import { loadStudy } from '../io/studyFile.js';
-import { checkedPlan, sealPlan } from '../io/planFile.js';
+import { checkedPlan, readPlanJson, sealPlan } from '../io/planFile.js';
 import { toolVersion } from '../io/toolVersion.js';
 import { comparisonExportFormat, writeComparisonExport } from '../io/comparisonExport.js';
 import { compareSummary } from './compareSummary.js';
@@ -110,18 +110,12 @@ async function planFrom(file: string): Promise<ComparedPlan> {
  */
 async function parsedPlanDocument(file: string): Promise<object | null> {
   if (extname(file).toLowerCase() !== '.json') return null;
-  let text: string;
-  try {
-    text = await readFile(file, 'utf8');
-  } catch {
-    return null; // let the study reader report the missing file in its own words
-  }
-  try {
-    const parsed: unknown = JSON.parse(text);
-    return typeof parsed === 'object' && parsed !== null && 'formatVersion' in parsed ? parsed : null;
-  } catch {
-    return null;
-  }
+  // A missing or unreadable file is reported by the study reader, in its own words.
+  const readable = await stat(file).then((info) => info.isFile(), () => false);
+  if (!readable) return null;
+  // Size, depth and key checks hold for any JSON the command reads, plan or study.
+  const parsed = await readPlanJson(file);
+  return typeof parsed === 'object' && parsed !== null && 'formatVersion' in parsed ? parsed : null;
 }
 
 function positiveNumber(text: string, key: string): number {

@@ -5,6 +5,7 @@
 import { isAbsolute, relative, resolve } from 'node:path';
 import type { Command } from 'commander';
 import { InputError } from '../core/inputError.js';
+import { limitMessage, limitOf, type LimitName } from '../core/inputLimits.js';
 import type { PlanDocument } from '../core/plan/planDocument.js';
 import { isCriterion, type DesignSettings, type Study } from '../core/study.js';
 import { loadStudy } from '../io/studyFile.js';
@@ -146,11 +147,11 @@ function overridingOption(key: string | undefined, options: PlanOptions): { name
 function designOptionOverrides(options: PlanOptions): Partial<DesignSettings> {
   const design: Partial<DesignSettings> = {};
   if (options.seed !== undefined) design.seed = integerOption('--seed', options.seed, 0, MAX_SEED);
-  if (options.starts !== undefined) design.starts = integerOption('--starts', options.starts, 1);
-  if (options.runs !== undefined) design.runs = options.runs === 'auto' ? 'auto' : integerOption('--runs', options.runs, 1);
-  if (options.centreRuns !== undefined) design.centreRuns = integerOption('--centre-runs', options.centreRuns, 0);
+  if (options.starts !== undefined) design.starts = integerOption('--starts', options.starts, 1, 'starts');
+  if (options.runs !== undefined) design.runs = options.runs === 'auto' ? 'auto' : integerOption('--runs', options.runs, 1, 'fittingRuns');
+  if (options.centreRuns !== undefined) design.centreRuns = integerOption('--centre-runs', options.centreRuns, 0, 'centreRuns');
   if (options.holdoutRuns !== undefined) {
-    design.holdoutRuns = options.holdoutRuns === 'auto' ? 'auto' : integerOption('--holdout-runs', options.holdoutRuns, 0);
+    design.holdoutRuns = options.holdoutRuns === 'auto' ? 'auto' : integerOption('--holdout-runs', options.holdoutRuns, 0, 'holdoutRuns');
   }
   if (options.criterion !== undefined) {
     const criterion = options.criterion.toUpperCase();
@@ -169,8 +170,11 @@ function shownPath(path: string): string {
 /** Seeds feed 32-bit generators: a larger seed would silently repeat a smaller one's design. */
 const MAX_SEED = 4294967295;
 
-function integerOption(name: string, text: string, minimum: number, maximum = Number.MAX_SAFE_INTEGER): number {
+/** A whole number ≥ `minimum` from an option; `bound` is its limit (by name) or a plain maximum. */
+function integerOption(name: string, text: string, minimum: number, bound: LimitName | number = Number.MAX_SAFE_INTEGER): number {
   const value = optionNumber(text);
+  if (typeof bound === 'string' && Number.isInteger(value) && value > limitOf(bound)) throw new InputError(`${name} ${text}: ${limitMessage(bound, value)}`);
+  const maximum = typeof bound === 'string' ? limitOf(bound) : bound;
   if (!Number.isInteger(value) || value < minimum || value > maximum) {
     const range = maximum === Number.MAX_SAFE_INTEGER ? `≥ ${minimum}` : `from ${minimum} to ${maximum}`;
     throw new InputError(`${name} must be a whole number ${range}, not ${text}`);

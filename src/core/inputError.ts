@@ -36,8 +36,20 @@ export class InputError extends Error {
     const parts: string[] = [];
     if (file) parts.push(file);
     if (row !== undefined) parts.push(`row ${row}`);
-    if (column !== undefined) parts.push(`column ${column}`);
-    if (key !== undefined) parts.push(`key ${key}`);
-    return parts.length ? `${parts.join(', ')}: ${this.message}` : this.message;
+    // Column names and key paths may come from the user's file: a header of a thousand characters stays short here.
+    if (column !== undefined) parts.push(`column ${excerpt(column)}`);
+    if (key !== undefined) parts.push(`key ${excerpt(key, 120)}`);
+    const line = parts.length ? `${parts.join(', ')}: ${this.message}` : this.message;
+    // A file name or a key taken from the user's file may hold a line break; the message stays one line.
+    return line.replace(/[\r\n\u2028\u2029]+/g, ' ');
   }
+}
+
+/**
+ * User text short enough to quote in a one-line message: the first `max` characters, line
+ * breaks and tabs shown as spaces, "…" where it was cut.
+ */
+export function excerpt(text: string, max = 60): string {
+  const flat = text.replace(/[\r\n\t\u2028\u2029]+/g, ' ');
+  return flat.length > max ? `${flat.slice(0, max - 1)}…` : flat;
 }

@@ -10,8 +10,14 @@
  */
 import { distance } from 'fastest-levenshtein';
 
+/** Longest word for which a suggestion is looked for. */
+const MAX_SUGGESTED_LENGTH = 200;
+
 /** The candidate closest to `word`, or undefined when none is close enough to suggest. */
 export function suggestKey(word: string, candidates: readonly string[]): string | undefined {
+  // Keys and ids are short; a pasted paragraph is no misspelling, and comparing it with
+  // thousands of candidates would cost seconds.
+  if (word.length > MAX_SUGGESTED_LENGTH) return undefined;
   const typed = word.toLowerCase();
   let best: string | undefined;
   let bestDistance = Infinity;

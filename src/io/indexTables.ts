@@ -23,9 +23,10 @@
  * Row numbers in messages are spreadsheet rows (see tableRows.ts).
  */
 import type { IndexRow, InteractionRow } from '../core/study.js';
-import { InputError, type InputLocation } from '../core/inputError.js';
+import { excerpt, InputError, type InputLocation } from '../core/inputError.js';
 import { cellLocation, readTableRows, rowLocation, type CellValue, type TableRow, type TableRows } from './tableRows.js';
 import { didYouMean, suggestKey } from '../core/suggestKey.js';
+import { checkLimit } from '../core/inputLimits.js';
 
 export type IndexColumn = 'factor' | 'response' | 'first' | 'total' | 'first_low' | 'first_high' | 'total_low' | 'total_high';
 export type InteractionColumn = 'factor_a' | 'factor_b' | 'response' | 'index';
@@ -187,6 +188,9 @@ export async function indexTableIds(
       ids.push(id);
     }
   }
+  // The study written from these ids must be readable: the same limits as the study's lists.
+  checkLimit('factors', factorIds.length, { file }, 'factors');
+  checkLimit('responses', responseIds.length, { file }, 'responses');
   const { warnings } = await readIndexTable(path, file, { factorIds, responseIds });
   return { factorIds, responseIds, warnings };
 }
@@ -277,12 +281,12 @@ function mapColumns<C extends string, R extends C>(
       const halfWidth = /_conf$/.test(normalised)
         ? '; a "_conf" column is usually a confidence half-width — give the bounds instead (estimate − half-width and estimate + half-width) as *_low and *_high'
         : didYouMean(normalised, [...byAlias.keys()]);
-      throw new InputError(`unknown column "${text}"${halfWidth}`, headerLocation(column));
+      throw new InputError(`unknown column "${excerpt(text)}"${halfWidth}`, headerLocation(column));
     }
     const earlier = found[canonical];
     if (earlier !== undefined) {
       throw new InputError(
-        `column "${text}" repeats column "${table.header[earlier]}" (both mean ${canonical})`,
+        `column "${excerpt(text)}" repeats column "${excerpt(table.header[earlier])}" (both mean ${canonical})`,
         headerLocation(column),
       );
     }
@@ -302,6 +306,18 @@ function mapColumns<C extends string, R extends C>(
 
 // --------------------------------------------------------------------------------- cells
 
+const knownSets = new WeakMap<readonly string[], Set<string>>();
+
+/** The id list as a set, built once per list: a table of 200 000 rows checks every id. */
+function knownSet(known: readonly string[]): Set<string> {
+  let set = knownSets.get(known);
+  if (set === undefined) {
+    set = new Set(known);
+    knownSets.set(known, set);
+  }
+  return set;
+}
+
 function readId(
   table: TableRows,
   row: TableRow,
@@ -313,10 +329,10 @@ function readId(
   const cell = row.cells[column];
   if (cell === null) throw new InputError(`is empty; a ${kind} id is required`, cellLocation(table, row, column));
   const id = String(cell).trim();
-  if (!known.includes(id)) {
+  if (!knownSet(known).has(id)) {
     const suggestion = suggestKey(id, known);
     const hint = suggestion !== undefined ? `; did you mean \`${suggestion}\`?` : `; every ${kind} in the table must be defined under \`${section}\` in the study file`;
-    throw new InputError(`unknown ${kind} "${id}"${hint}`, cellLocation(table, row, column));
+    throw new InputError(`unknown ${kind} "${excerpt(id)}"${hint}`, cellLocation(table, row, column));
   }
   return id;
 }
@@ -334,15 +350,15 @@ function readNumber(table: TableRows, row: TableRow, column: number): number {
   }
   const text = cell.trim();
   if (/^[+-]?(nan|inf|infinity|#num!|#div\/0!|#n\/a|#value!)$/i.test(text)) {
-    throw new InputError(`"${text}" is not a usable index value (NaN, infinite or a spreadsheet error); re-estimate or fix it`, where);
+    throw new InputError(`"${excerpt(text)}" is not a usable index value (NaN, infinite or a spreadsheet error); re-estimate or fix it`, where);
   }
-  if (/%$/.test(text)) throw new InputError(`"${text}" is a percentage; give indices as fractions (0.25, not 25%)`, where);
+  if (/%$/.test(text)) throw new InputError(`"${excerpt(text)}" is a percentage; give indices as fractions (0.25, not 25%)`, where);
   if (/^[+-]?\d*,\d+$/.test(text)) {
     // Semicolons only help a CSV; in a workbook or JSON the cell itself must change.
     const advice = table.format === 'csv' ? 'use "." decimals, or separate the columns with semicolons' : 'enter it as a number with "." decimals';
-    throw new InputError(`"${text}" has a decimal comma; ${advice}`, where);
+    throw new InputError(`"${excerpt(text)}" has a decimal comma; ${advice}`, where);
   }
-  if (!PLAIN_NUMBER.test(text)) throw new InputError(`must be a number, not "${text}"`, where);
+  if (!PLAIN_NUMBER.test(text)) throw new InputError(`must be a number, not "${excerpt(text)}"`, where);
   return Number(text);
 }
 
@@ -372,7 +388,7 @@ function requireBoundPairs(table: TableRows, columns: Partial<Record<IndexColumn
     const [given, missing] = columns[low] !== undefined ? [low, high] : [high, low];
     const column = table.header[columns[given] as number];
     throw new InputError(
-      `column "${column}" has no partner column ${missing}; a confidence interval needs both bounds (or leave both columns out)`,
+      `column "${excerpt(column)}" has no partner column ${missing}; a confidence interval needs both bounds (or leave both columns out)`,
       table.format === 'json'
         ? cellLocation(table, table.rows.find((row) => row.cells[columns[given] as number] !== null) ?? table.rows[0], columns[given] as number)
         : { file: table.file, ...table.headerAt, column },

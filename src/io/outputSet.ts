@@ -19,6 +19,7 @@ import { randomBytes } from 'node:crypto';
 import * as fs from 'node:fs/promises';
 import { basename, dirname, join } from 'node:path';
 import { InputError } from '../core/inputError.js';
+import { clearPendingFile, notePendingFile } from './pendingFiles.js';
 
 export interface OutputFile {
   name: string;
@@ -60,6 +61,7 @@ export async function writeOutputSet(
     for (const file of files) {
       const temp = join(dir, `.${file.name}.${tag}.tmp`);
       temps.push(temp);
+      notePendingFile(temp);
       await ops.writeFile(temp, file.content);
     }
   } catch (error) {
@@ -88,6 +90,7 @@ export async function writeOutputSet(
     throw asInputError(error, 'cannot put files in place in');
   }
   await Promise.all(done.map(({ backup }) => (backup ? removeQuietly(backup) : undefined)));
+  for (const temp of temps) clearPendingFile(temp);
   return files.map((file) => join(dir, file.name));
 }
 
@@ -180,6 +183,7 @@ async function rollBack(done: { target: string; backup: string | null }[], temps
 /** Clean-up must not hide the error that caused it (a too-long name fails even to be removed). */
 async function removeQuietly(path: string): Promise<void> {
   await fs.rm(path, { force: true }).catch(() => undefined);
+  clearPendingFile(path);
 }
 
 async function exists(path: string): Promise<boolean> {

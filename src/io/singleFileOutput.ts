@@ -21,6 +21,7 @@ import { randomBytes } from 'node:crypto';
 import { readFile, realpath, rename, stat, unlink, writeFile } from 'node:fs/promises';
 import { basename, dirname, join, resolve } from 'node:path';
 import { InputError } from '../core/inputError.js';
+import { clearPendingFile, notePendingFile } from './pendingFiles.js';
 
 export interface SingleFileRules {
   /** Files the output may never replace, with what they are for the message. */
@@ -56,11 +57,14 @@ export async function writeSingleFile(path: string, content: string, rules: Sing
   if (existing && !rules.force) await refuseExisting(path, rules);
 
   const temporary = join(folder, `.${basename(path)}.${randomBytes(6).toString('hex')}.tmp`);
+  notePendingFile(temporary);
   try {
     await writeFile(temporary, content, { encoding: 'utf8', flag: 'wx' });
     await rename(temporary, path);
+    clearPendingFile(temporary);
   } catch (error) {
     await unlink(temporary).catch(() => {});
+    clearPendingFile(temporary);
     const code = (error as NodeJS.ErrnoException).code;
     if (typeof code === 'string') throw new InputError(`cannot write here (${code}); nothing was written`, { file: path });
     throw error;

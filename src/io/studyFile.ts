@@ -21,9 +21,8 @@
  */
 import { readFile, stat } from 'node:fs/promises';
 import { dirname, extname, isAbsolute, join, resolve } from 'node:path';
-import { LineCounter, parseDocument } from 'yaml';
 import { z } from 'zod';
-import { InputError } from '../core/inputError.js';
+import { excerpt, InputError } from '../core/inputError.js';
 import { parseTerm } from '../core/model/termSyntax.js';
 import {
   AGGREGATE_RULES,
@@ -44,7 +43,9 @@ import {
   type TierPolicy,
 } from '../core/study.js';
 import { readIndexTable, readInteractionTable } from './indexTables.js';
-import { fileSystemProblem, parseJsonText, undecodableLine } from './tableRows.js';
+import { fileSystemProblem, megabytes, undecodableLine } from './tableRows.js';
+import { parseJsonText, parseYamlText } from './documentText.js';
+import { aboveLimit, checkLimit, isLimitMessage, limitIssue, limitMessage, limitOf, type LimitName } from '../core/inputLimits.js';
 import { didYouMean } from '../core/suggestKey.js';
 import { RESERVED_WORDS } from '../core/region/constraintWords.js';
 
@@ -62,40 +63,56 @@ const IDENTIFIER = /^[A-Za-z][A-Za-z0-9_]*$/;
 export const PLACEHOLDER = 'TODO';
 const NOT_PLACEHOLDER = new RegExp(`^(?!\\s*${PLACEHOLDER}\\s*$)`);
 
+/** A number, a text or a list no larger than its limit in src/core/inputLimits.ts. */
+const capped = <T extends z.ZodNumber | z.ZodString>(schema: T, name: LimitName): T =>
+  schema.max(limitOf(name), { error: limitIssue(name) }) as T;
+/** An engineering value: finite and within ±numberMagnitude. */
+const setting = (): z.ZodNumber => capped(z.number(), 'numberMagnitude').min(-limitOf('numberMagnitude'), { error: limitIssue('numberMagnitude') });
+const text = (): z.ZodString => capped(z.string(), 'textLength');
+const identifier = (): z.ZodString => capped(z.string(), 'idLength');
 /** Text the user must write themselves (a placeholder left in it is refused). */
-const filledText = () => z.string().regex(NOT_PLACEHOLDER, { error: 'fill in the text' });
+const filledText = (): z.ZodString => text().regex(NOT_PLACEHOLDER, { error: 'fill in the text' });
 
 const limitsSchema = z
   .strictObject({
-    low: z.number().describe('lowest setting the equipment is rated for, in the factor\'s unit'),
-    high: z.number().describe('highest setting the equipment is rated for, in the factor\'s unit'),
+    low: setting().describe('lowest setting the equipment is rated for, in the factor\'s unit'),
+    high: setting().describe('highest setting the equipment is rated for, in the factor\'s unit'),
   })
   .describe('the equipment\'s rated range; a planned setting outside it is refused');
 
 const factorSchema = z.strictObject({
-  id: z.string().describe('identifier used in the index tables, constraints and model terms: a letter, then letters, digits or _'),
+  id: identifier().describe('identifier used in the index tables, constraints and model terms: a letter, then letters, digits or _'),
   name: filledText().min(1).describe('readable name, shown on the run sheets and the report'),
   unit: filledText().describe('engineering unit of low, high and nominal, e.g. °C or kg/h; "-" when it has none'),
   role: z.enum(['operating', 'model']).describe('operating: a setting the lab can vary; model: a parameter of the process model'),
-  low: z.number().describe('low end of the range the sensitivity analysis covered, in the factor\'s unit'),
-  high: z.number().describe('high end of that range, above low'),
-  nominal: z.number().describe('usual setting or value, between low and high; negligible factors are fixed here'),
-  precision: z.number().positive().optional().describe('smallest settable step; settings are rounded to a multiple of it'),
+  low: setting().describe('low end of the range the sensitivity analysis covered, in the factor\'s unit'),
+  high: setting().describe('high end of that range, above low'),
+  nominal: setting().describe('usual setting or value, between low and high; negligible factors are fixed here'),
+  precision: setting().positive().optional().describe('smallest settable step; settings are rounded to a multiple of it'),
   limits: limitsSchema.optional(),
   levels: z
-    .union([z.number().int().min(2), z.array(z.number()).min(2)], {
-      error: 'must be a level count (a whole number ≥ 2) or a list of at least 2 level values',
-    })
+    .union(
+      [
+        capped(z.number().int().min(2), 'levelsPerFactor'),
+        z.array(setting()).min(2).max(limitOf('levelsPerFactor'), { error: limitIssue('levelsPerFactor') }),
+      ],
+      {
+        error: (issue) =>
+          Array.isArray(issue.input) && issue.input.length > limitOf('levelsPerFactor')
+            ? `lists ${issue.input.length} levels, ${aboveLimit('levelsPerFactor')}`
+            : 'must be a level count (a whole number ≥ 2) or a list of at least 2 level values',
+      },
+    )
     .optional()
     .describe('a level count, or the level values, instead of the count the tier gives'),
   hardToChange: z.boolean().optional().describe('true when changing the setting is slow or costly: runs sharing it are kept together'),
 });
 
 const responseSchema = z.strictObject({
-  id: z.string().describe('identifier used in the index tables: a letter, then letters, digits or _'),
+  id: identifier().describe('identifier used in the index tables: a letter, then letters, digits or _'),
   name: filledText().min(1).describe('readable name, shown on the run sheets and the report'),
   unit: filledText().describe('unit the response is measured in; "-" when it has none'),
-  weight: z.number().positive().optional().describe('relative weight under the weighted aggregate (default 1)'),
+  weight: capped(z.number().positive(), 'numberMagnitude').optional().describe('relative weight under the weighted aggregate (default 1)'),
 });
 
 const policySchema = z
@@ -110,55 +127,61 @@ const policySchema = z
 
 const levelsSchema = z
   .strictObject({
-    critical: z.number().int().min(2).optional().describe('levels of a critical factor (default 4)'),
-    moderate: z.number().int().min(2).optional().describe('levels of a moderate factor (default 3)'),
+    critical: capped(z.number().int().min(2), 'levelsPerFactor').optional().describe('levels of a critical factor (default 4)'),
+    moderate: capped(z.number().int().min(2), 'levelsPerFactor').optional().describe('levels of a moderate factor (default 3)'),
   })
   .describe('level counts per tier');
+
+const list = <T extends z.ZodType>(item: T, name: LimitName) => z.array(item).max(limitOf(name), { error: limitIssue(name) });
 
 const designSchema = z
   .strictObject({
     runs: z
-      .union([z.number().int().min(1), z.literal('auto')], { error: 'must be a whole number of runs (≥ 1) or "auto"' })
+      .union([capped(z.number().int().min(1), 'fittingRuns'), z.literal('auto')], { error: runsError('whole number of runs (≥ 1) or "auto"', 'fittingRuns') })
       .optional()
       .describe('fitting runs, not counting centre or holdout runs, or auto (default)'),
     model: z
-      .union([z.enum(MODEL_PRESETS), z.array(z.string().min(1)).min(1)], {
-        error: 'must be "linear", "interactions", "quadratic" or a list of model terms such as [inlet_temp, inlet_temp*feed_rate]',
+      .union([z.enum(MODEL_PRESETS), list(capped(z.string().min(1), 'expressionLength'), 'modelTerms').min(1)], {
+        error: (issue) =>
+          Array.isArray(issue.input)
+            ? listError(issue.input, 'modelTerms', 'expressionLength')
+            : 'must be "linear", "interactions", "quadratic" or a list of model terms such as [inlet_temp, inlet_temp*feed_rate]',
       })
       .optional()
       .describe('linear, interactions, quadratic or a list of terms; derived from the tiers when absent'),
     criterion: z.enum(CRITERIA).optional().describe('D (default) or I optimality'),
-    centreRuns: z.number().int().min(0).optional().describe('replicate runs at the centre point (default 3)'),
+    centreRuns: capped(z.number().int().min(0), 'centreRuns').optional().describe('replicate runs at the centre point (default 3)'),
     holdoutRuns: z
-      .union([z.number().int().min(0), z.literal('auto')], { error: 'must be a whole number of runs (≥ 0) or "auto"' })
+      .union([capped(z.number().int().min(0), 'holdoutRuns'), z.literal('auto')], { error: runsError('whole number of runs (≥ 0) or "auto"', 'holdoutRuns') })
       .optional()
       .describe('validation runs kept out of the fit, or auto (default, about a fifth of the fitting runs)'),
     // 32-bit generators: a larger seed would silently repeat a smaller one's design.
     seed: z.number().int().min(0).max(4294967295).optional().describe('random seed of the search and the run order (default 1)'),
     levels: levelsSchema.optional(),
-    starts: z.number().int().min(1).optional().describe('random starts of the exchange search (default 20)'),
+    starts: capped(z.number().int().min(1), 'starts').optional().describe('random starts of the exchange search (default 20)'),
   })
   .describe('the design search');
 
 const sessionsSchema = z
   .strictObject({
-    maxRuns: z.number().int().min(1).describe('most runs in one session (day, shift or batch)'),
-    label: z.string().min(1).optional().describe('what a session is called on the run sheet (default Session)'),
+    maxRuns: capped(z.number().int().min(1), 'sessionRuns').describe('most runs in one session (day, shift or batch)'),
+    label: text().min(1).optional().describe('what a session is called on the run sheet (default Session)'),
   })
   .describe('how the runs are split into sessions');
 
+const amount = (): z.ZodNumber => capped(z.number(), 'numberMagnitude');
 const levelChangeSchema = z
   .strictObject({
-    cost: z.number().min(0).describe('extra cost of one change, in the currency'),
-    hours: z.number().min(0).describe('extra bench hours of one change'),
+    cost: amount().min(0).describe('extra cost of one change, in the currency'),
+    hours: amount().min(0).describe('extra bench hours of one change'),
   })
   .describe('extra cost and time of each change of a hard-to-change setting');
 
 const costsSchema = z
   .strictObject({
     currency: filledText().min(1).describe('currency code or word the costs are in, e.g. EUR'),
-    perRun: z.number().positive().describe('cost of one run'),
-    hoursPerRun: z.number().positive().describe('bench hours of one run'),
+    perRun: amount().positive().describe('cost of one run'),
+    hoursPerRun: amount().positive().describe('bench hours of one run'),
     perLevelChange: levelChangeSchema.optional(),
   })
   .describe('what a run costs, for the comparison and the report');
@@ -166,20 +189,36 @@ const costsSchema = z
 const studySchema = z
   .strictObject({
     title: filledText().min(1).describe('shown on every output'),
-    factors: z.array(factorSchema).min(1).describe('every factor of the sensitivity analysis: operating settings and model parameters'),
-    responses: z.array(responseSchema).min(1).describe('the responses the indices are given for'),
-    indices: z.string().min(1).describe('first-order and total index table (CSV, XLSX or JSON), relative to this file'),
-    interactions: z.string().min(1).optional().describe('second-order index table, relative to this file'),
+    factors: list(factorSchema, 'factors').min(1).describe('every factor of the sensitivity analysis: operating settings and model parameters'),
+    responses: list(responseSchema, 'responses').min(1).describe('the responses the indices are given for'),
+    indices: text().min(1).describe('first-order and total index table (CSV, XLSX or JSON), relative to this file'),
+    interactions: text().min(1).optional().describe('second-order index table, relative to this file'),
     policy: policySchema.optional(),
     design: designSchema.optional(),
-    constraints: z
-      .array(z.string().min(1))
+    constraints: list(capped(z.string().min(1), 'expressionLength'), 'constraints')
       .optional()
       .describe('conditions every run must meet, over factor ids in engineering units, e.g. feed_rate <= 0.2 * inlet_temp - 18'),
     sessions: sessionsSchema.optional(),
     costs: costsSchema.optional(),
   })
   .describe('A tierplan study: the factors and responses of a global sensitivity analysis, its index tables, and how to plan the lab campaign.');
+
+/** A union's one message: the limit when a whole number went past it, else what is expected. */
+function runsError(expected: string, name: LimitName): (issue: { input?: unknown }) => string {
+  return (issue) =>
+    typeof issue.input === 'number' && Number.isInteger(issue.input) && issue.input > limitOf(name)
+      ? limitMessage(name, issue.input)
+      : `must be a ${expected}`;
+}
+
+/** The message for a model term list that failed: too long a list, too long a term, or not text. */
+function listError(items: unknown[], name: LimitName, itemName: LimitName): string {
+  if (items.length > limitOf(name)) return `lists ${items.length} entries, ${aboveLimit(name)}`;
+  const long = items.findIndex((item) => typeof item === 'string' && item.length > limitOf(itemName));
+  if (long >= 0) return `entry ${long} is ${(items[long] as string).length} characters long, ${aboveLimit(itemName)}`;
+  if (items.length === 0) return 'must list at least 1 model term';
+  return 'must be "linear", "interactions", "quadratic" or a list of model terms such as [inlet_temp, inlet_temp*feed_rate]';
+}
 
 type StudyDocument = z.infer<typeof studySchema>;
 
@@ -246,7 +285,11 @@ async function readStudyDocument(path: string): Promise<unknown> {
   }
   let text: string;
   try {
-    if ((await stat(path)).isDirectory()) throw new InputError('is a folder, not a study file', { file: path });
+    const info = await stat(path);
+    if (info.isDirectory()) throw new InputError('is a folder, not a study file', { file: path });
+    if (info.size > limitOf('studyFileBytes')) {
+      throw new InputError(`is ${megabytes(info.size)}, ${aboveLimit('studyFileBytes')}`, { file: path });
+    }
     text = await readFile(path, 'utf8');
   } catch (error) {
     if (error instanceof InputError) throw error;
@@ -263,20 +306,7 @@ async function readStudyDocument(path: string): Promise<unknown> {
   }
   if (text.trim() === '') throw new InputError('is empty', { file: path });
 
-  let data: unknown;
-  if (extension === '.json') {
-    data = parseJsonText(text, path);
-  } else {
-    const lineCounter = new LineCounter();
-    const parsed = parseDocument(text, { prettyErrors: false, lineCounter });
-    const problem = parsed.errors[0];
-    if (problem) {
-      const line = lineCounter.linePos(problem.pos[0]);
-      const at = ` at line ${line.line}, column ${line.col}`;
-      throw new InputError(`YAML syntax error${at}: ${problem.message.split('\n')[0]}`, { file: path });
-    }
-    data = parsed.toJS();
-  }
+  const data = extension === '.json' ? parseJsonText(text, path) : parseYamlText(text, path);
   if (data === null || data === undefined) throw new InputError('has no content (only comments?)', { file: path });
   if (typeof data !== 'object' || Array.isArray(data)) {
     throw new InputError(`must be a mapping with keys such as ${KEYS_AT[''].slice(0, 4).join(', ')}, …`, { file: path });
@@ -300,7 +330,7 @@ function issueToError(issues: readonly z.core.$ZodIssue[], file: string): InputE
   const issue = issues.find((candidate) => candidate.code === 'unrecognized_keys') ?? issues[0];
   const at = keyPath(issue.path);
   if (issue.code === 'unrecognized_keys') {
-    const unknown = issue.keys[0];
+    const unknown = excerpt(issue.keys[0], 40);
     const pattern = issue.path.map((part) => (typeof part === 'number' ? '[]' : String(part))).join('.').replace(/\.\[\]/g, '[]');
     const valid = KEYS_AT[pattern] ?? [];
     return new InputError(`unknown key "${unknown}"${didYouMean(unknown, valid)}`, {
@@ -335,9 +365,11 @@ function issueMessage(issue: z.core.$ZodIssue): string {
     case 'too_small': {
       if (issue.origin === 'array') return `must list at least ${issue.minimum} entr${Number(issue.minimum) === 1 ? 'y' : 'ies'}`;
       if (issue.origin === 'string') return 'must not be empty';
+      if (isLimitMessage(issue.message)) return issue.message;
       return `must be ${issue.inclusive ? 'at least' : 'greater than'} ${issue.minimum}, not ${shown}`;
     }
     case 'too_big':
+      if (isLimitMessage(issue.message)) return issue.message;
       return `must be ${issue.inclusive ? 'at most' : 'less than'} ${issue.maximum}, not ${shown}`;
     case 'invalid_value': {
       const options = issue.values.map((value) => `"${String(value)}"`).join(', ');
@@ -360,6 +392,7 @@ function placeholderWanted(issue: z.core.$ZodIssue): string {
 
 /** Why `id` cannot name a factor or a response, or undefined when it can. */
 export function idProblem(id: string): string | undefined {
+  if (id.length > limitOf('idLength')) return `"${excerpt(id)}" is ${id.length} characters long, ${aboveLimit('idLength')}`;
   if (!IDENTIFIER.test(id)) {
     return `"${id}" is not a usable id: start with a letter, then letters, digits or "_" (ids are written in constraints and model terms)`;
   }
@@ -421,6 +454,7 @@ function checkStudyRules(data: StudyDocument, file: string): { study: CheckedStu
     }
     return factor;
   });
+  checkLimit('operatingFactors', factors.filter((factor) => factor.role === 'operating').length, { file, key: 'factors' });
   if (!factors.some((factor) => factor.role === 'operating')) {
     fail('factors', 'needs at least one factor with role "operating" (a setting the lab plan can vary)');
   }
@@ -453,7 +487,7 @@ function checkStudyRules(data: StudyDocument, file: string): { study: CheckedStu
     design.model.forEach((term, i) => {
       const key = `design.model[${i}]`;
       const parameter = modelOnly.find((id) => term.split(/[*^\s]+/).includes(id));
-      if (parameter !== undefined) fail(key, `term "${term}" uses ${parameter}, a model parameter; model terms use operating settings only`);
+      if (parameter !== undefined) fail(key, `term "${excerpt(term)}" uses ${parameter}, a model parameter; model terms use operating settings only`);
       try {
         parseTerm(term, operating, key);
       } catch (error) {

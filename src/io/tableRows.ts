@@ -24,9 +24,11 @@
 import { readFile, stat } from 'node:fs/promises';
 import { extname } from 'node:path';
 import { parse as parseCsv } from 'csv-parse/sync';
-import { LineCounter, parseDocument } from 'yaml';
 import type ExcelJS from 'exceljs';
-import { InputError, type InputLocation } from '../core/inputError.js';
+import { excerpt, InputError, type InputLocation } from '../core/inputError.js';
+import { aboveLimit, checkLimit, limitOf } from '../core/inputLimits.js';
+import { parseJsonText } from './documentText.js';
+import { zipContentSize } from './zipContentSize.js';
 
 export type CellValue = string | number | null;
 
@@ -73,7 +75,10 @@ export async function readTableRows(path: string, file: string, sheetNames: read
     const hint = extension === '.xls' ? '; save the workbook as .xlsx' : extension === '.tsv' || extension === '.txt' ? '; export it as comma-separated .csv' : '';
     throw new InputError(`unsupported table type "${extension || '(no extension)'}"; use .csv, .xlsx or .json${hint}`, { file });
   }
-  await checkReadableFile(path, file);
+  const size = await checkReadableFile(path, file);
+  // A workbook is unpacked whole in memory, so it gets a smaller limit than text.
+  const sizeLimit = extension === '.xlsx' ? 'workbookFileBytes' : 'tableFileBytes';
+  if (size > limitOf(sizeLimit)) throw new InputError(`is ${megabytes(size)}, ${aboveLimit(sizeLimit)}`, { file });
   // stat succeeds on a file the user may not read (permissions), so reading needs its own message.
   let bytes: Uint8Array;
   try {
@@ -81,13 +86,19 @@ export async function readTableRows(path: string, file: string, sheetNames: read
   } catch (error) {
     throw new InputError(fileSystemProblem(error), { file });
   }
-  if (extension === '.xlsx') return readWorkbook(bytes, file, sheetNames);
-  if (extension === '.json') return readJsonRows(bytes, file);
-  return readCsvRows(bytes, file);
+  const table =
+    extension === '.xlsx' ? await readWorkbook(bytes, file, sheetNames) : extension === '.json' ? readJsonRows(bytes, file) : readCsvRows(bytes, file);
+  checkLimit('tableRows', table.rows.length, { file }, 'data rows');
+  return table;
 }
 
-/** One-line errors for a missing, empty, folder or unreadable file. */
-async function checkReadableFile(path: string, file: string): Promise<void> {
+/** "3.2 MB" (decimal megabytes, as file managers show sizes). */
+export function megabytes(bytes: number): string {
+  return `${(bytes / 1e6).toFixed(1)} MB`;
+}
+
+/** One-line errors for a missing, empty, folder or unreadable file; returns its size in bytes. */
+export async function checkReadableFile(path: string, file: string): Promise<number> {
   let info;
   try {
     info = await stat(path);
@@ -96,6 +107,7 @@ async function checkReadableFile(path: string, file: string): Promise<void> {
   }
   if (info.isDirectory()) throw new InputError('is a folder, not a file', { file });
   if (info.size === 0) throw new InputError('is empty', { file });
+  return info.size;
 }
 
 export function fileSystemProblem(error: unknown): string {
@@ -197,6 +209,7 @@ function readCsvRows(bytes: Uint8Array, file: string): TableRows {
   }
   const [headerRecord, ...dataRecords] = records;
   const header = headerRecord.record.map((cell) => cell.trim());
+  checkLimit('tableColumns', header.length, { file, row: headerRecord.info.lines }, 'header columns');
   const rows: TableRow[] = [];
   let firstComma: { row: number; column: string; text: string } | undefined;
   let firstPoint: { row: number; column: string; text: string } | undefined;
@@ -228,7 +241,7 @@ function readCsvRows(bytes: Uint8Array, file: string): TableRows {
       if (firstComma && firstPoint) {
         const later = firstComma.row >= firstPoint.row ? firstComma : firstPoint;
         throw new InputError(
-          `mixed decimal marks: "${firstComma.text}" (row ${firstComma.row}) uses a decimal comma but "${firstPoint.text}" (row ${firstPoint.row}) a decimal point; export the whole table with one convention — commas between columns and "." decimals is safest`,
+          `mixed decimal marks: "${excerpt(firstComma.text)}" (row ${firstComma.row}) uses a decimal comma but "${excerpt(firstPoint.text)}" (row ${firstPoint.row}) a decimal point; export the whole table with one convention — commas between columns and "." decimals is safest`,
           { file, row: later.row, column: later.column },
         );
       }
@@ -257,6 +270,11 @@ function countOutsideQuotes(line: string, separator: string): number {
 // ---------------------------------------------------------------------------------- XLSX
 
 async function readWorkbook(bytes: Uint8Array, file: string, sheetNames: readonly string[]): Promise<TableRows> {
+  const unpacked = zipContentSize(bytes);
+  if (unpacked !== null && unpacked > limitOf('workbookContentBytes')) {
+    const shown = Number.isFinite(unpacked) ? megabytes(unpacked) : 'more than 4 GB';
+    throw new InputError(`unpacks to ${shown}, ${aboveLimit('workbookContentBytes')}; export the table as CSV`, { file });
+  }
   // exceljs takes a noticeable part of a second to load; only workbook users pay for it.
   const { default: excel } = await import('exceljs');
   const workbook = new excel.Workbook();
@@ -273,6 +291,9 @@ async function readWorkbook(bytes: Uint8Array, file: string, sheetNames: readonl
   let header: string[] | undefined;
   let headerAt: InputLocation = {};
   const rows: TableRow[] = [];
+  // Header and comment rows come on top of the data rows; the exact count is checked after reading.
+  checkLimit('tableRows', sheet.actualRowCount - 1, { file }, 'rows');
+  checkLimit('tableColumns', sheet.actualColumnCount, { file }, 'columns');
   sheet.eachRow({ includeEmpty: false }, (sheetRow, rowNumber) => {
     const values: CellValue[] = [];
     const width = Math.max(sheetRow.cellCount, header?.length ?? 0);
@@ -293,7 +314,7 @@ async function readWorkbook(bytes: Uint8Array, file: string, sheetNames: readonl
     }
     rows.push({ at: { row: rowNumber }, cells });
   });
-  if (header === undefined) throw new InputError(`worksheet "${sheet.name}" is empty`, { file });
+  if (header === undefined) throw new InputError(`worksheet "${excerpt(sheet.name)}" is empty`, { file });
   return { file, format: 'xlsx', header, headerAt, rows, decimalComma: false };
 }
 
@@ -315,50 +336,6 @@ function workbookCell(value: ExcelJS.CellValue | undefined): CellValue {
 
 // ---------------------------------------------------------------------------------- JSON
 
-/**
- * JSON text to a value, or one line saying what is wrong and where. `JSON.parse` alone lets
- * a repeated key win silently, and its messages quote the text around the fault (line
- * breaks included) without a line number; the yaml parser reading the same text under its
- * JSON schema supplies line and column. `NaN` and `Infinity` (which Python's json module
- * writes by default) get their own advice.
- */
-export function parseJsonText(text: string, file: string): unknown {
-  let data: unknown;
-  let failure: string | undefined;
-  try {
-    data = JSON.parse(text);
-  } catch (error) {
-    failure = (error as Error).message;
-  }
-  const lineCounter = new LineCounter();
-  const { errors } = parseDocument(text, { schema: 'json', lineCounter, prettyErrors: false });
-  const where = (offset: number): string => {
-    const { line, col } = lineCounter.linePos(offset);
-    return `line ${line}, column ${col}`;
-  };
-  if (failure === undefined) {
-    const repeated = errors.find((error) => error.code === 'DUPLICATE_KEY');
-    if (repeated) {
-      // The error points at the opening quote of the repeated key.
-      const key = /^"(?:[^"\\]|\\.)*"/.exec(text.slice(repeated.pos[0]))?.[0] ?? 'a key';
-      throw new InputError(`repeats the key ${key} at ${where(repeated.pos[0])}; give each key once`, { file });
-    }
-    return data;
-  }
-  const problem = errors[0];
-  const nonFinite = problem?.code === 'TAG_RESOLVE_FAILED' ? /"([+-]?(?:NaN|Infinity))"/.exec(problem.message) : null;
-  if (problem && nonFinite) {
-    throw new InputError(
-      `is not valid JSON at ${where(problem.pos[0])}: ${nonFinite[1]} is not a JSON value; write a number (or null where a value may be empty)`,
-      { file },
-    );
-  }
-  const position = /at position (\d+)/.exec(failure);
-  const at = position ? ` at ${where(Number(position[1]))}` : problem ? ` near ${where(problem.pos[0])}` : '';
-  const reason = failure.replace(/\s+/g, ' ').replace(/ (?:in JSON )?at position \d+.*$/, '');
-  throw new InputError(`is not valid JSON${at}: ${reason}`, { file });
-}
-
 function readJsonRows(bytes: Uint8Array, file: string): TableRows {
   const text = decodeUtf8Text(bytes, file);
   if (text.trim() === '') throw new InputError('is empty', { file });
@@ -373,13 +350,20 @@ function readJsonRows(bytes: Uint8Array, file: string): TableRows {
     throw new InputError('must hold an array of row objects, or an object with a "rows" array', { file });
   }
   const list = entries as unknown[];
+  checkLimit('tableRows', list.length, { file }, 'data rows');
   const header: string[] = [];
+  const known = new Set<string>();
   for (let i = 0; i < list.length; i++) {
     const entry = list[i];
     if (entry === null || typeof entry !== 'object' || Array.isArray(entry)) {
       throw new InputError('must be an object with one key per column', { file, key: `${prefix}[${i}]` });
     }
-    for (const key of Object.keys(entry)) if (!header.includes(key)) header.push(key);
+    for (const key of Object.keys(entry)) {
+      if (known.has(key)) continue;
+      known.add(key);
+      header.push(key);
+      checkLimit('tableColumns', header.length, { file, key: `${prefix}[${i}].${excerpt(key)}` }, 'columns');
+    }
   }
   const rows: TableRow[] = list.map((entry, i) => ({
     at: { key: `${prefix}[${i}]` },

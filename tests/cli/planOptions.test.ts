@@ -75,8 +75,8 @@ describe('tierplan plan refuses option values in one line naming the option', ()
     [['--moderate', 'abc'], /^tierplan: --moderate must be a number strictly between 0 and 1/],
     [['--aggregate', 'median'], /^tierplan: --aggregate must be mean, max or weighted, not "median"$/],
     [['--confidence', 'lower'], /^tierplan: --confidence must be point or upper, not "lower"$/],
-    [['--centre-runs', '-1'], /^tierplan: --centre-runs must be a whole number ≥ 0, not -1$/],
-    [['--holdout-runs', '1.5'], /^tierplan: --holdout-runs must be a whole number ≥ 0, not 1\.5$/],
+    [['--centre-runs', '-1'], /^tierplan: --centre-runs must be a whole number from 0 to 100, not -1$/],
+    [['--holdout-runs', '1.5'], /^tierplan: --holdout-runs must be a whole number from 0 to 200, not 1\.5$/],
   ])('%j', (args, pattern) => {
     const result = runCli(['plan', missing, ...args]);
     expect(result.status).toBe(2);
@@ -93,11 +93,11 @@ describe('tierplan plan refuses option values in one line naming the option', ()
     );
   });
 
-  it('blames more holdout runs than interior points on --holdout-runs, and writes nothing', () => {
+  it('refuses --holdout-runs past its limit on the option, and writes nothing', () => {
     const out = join(mkdtempSync(join(tmpdir(), 'tierplan-holdout-')), 'out');
     const result = runCli(['plan', sample, '--starts', '2', '--holdout-runs', '500', '--out', out]);
     expect(result.status).toBe(2);
-    expect(result.stderr.trim()).toMatch(/^tierplan: --holdout-runs 500: only \d+ interior feasible points are available for 500 holdout runs; ask for fewer$/);
+    expect(result.stderr.trim()).toBe('tierplan: --holdout-runs 500: 500 runs is above the limit of 200 runs (see "Limits" in the README)');
     expect(existsSync(out)).toBe(false);
   });
 });

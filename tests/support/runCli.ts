@@ -13,8 +13,8 @@ export interface CliResult {
   stderr: string;
 }
 
-export function runCli(args: string[], options: { cwd?: string; env?: Record<string, string> } = {}): CliResult {
-  const result = spawnSync(process.execPath, [entry, ...args], {
+export function runCli(args: string[], options: { cwd?: string; env?: Record<string, string>; nodeArgs?: string[] } = {}): CliResult {
+  const result = spawnSync(process.execPath, [...(options.nodeArgs ?? []), entry, ...args], {
     cwd: options.cwd ?? repoRoot,
     env: { ...process.env, NO_COLOR: '1', ...options.env },
     encoding: 'utf8',

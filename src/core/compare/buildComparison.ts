@@ -102,6 +102,7 @@ export function buildComparison(plan: ComparisonInput, options: ComparisonOption
     plannedLevels: variedLevels.map((level) => [...level.coded].sort((a, b) => a - b)),
     hasInteractions: termPowers.some((powers) => Object.keys(powers).length >= 2),
     hasSquares: termPowers.some((powers) => Object.values(powers).some((power) => power >= 2)),
+    p: model.p,
     factors: plan.study.factors,
     region,
     conventionalRegion: allOperatingRegion(plan),

@@ -25,6 +25,7 @@ import type { Factor } from '../study.js';
 import type { ComparatorId } from './comparisonTypes.js';
 import { twoLevelFullFactorial } from '../classical/fullFactorial.js';
 import { minimumAberrationFraction } from '../classical/fractionalFactorial.js';
+import { MAX_LETTERED_FACTORS } from '../classical/wordLengthPattern.js';
 import { smallestPlackettBurman } from '../classical/plackettBurman.js';
 import { centralComposite } from '../classical/centralComposite.js';
 import { boxBehnken } from '../classical/boxBehnken.js';
@@ -36,6 +37,11 @@ import { counted } from '../countedNoun.js';
 
 /** Largest two-level cube (full factorial, conventional plan, composite cube) built point by point. */
 const MAX_CONVENTIONAL_FACTORS = 16;
+/**
+ * Largest runs × p² of a plan that is evaluated (X'X, estimability, variance inflation each
+ * cost about that many multiply-adds): about a second per plan on the reference machine.
+ */
+const EVALUATION_WORK = 3e8;
 
 export interface ComparatorContext {
   /** Varied (design) factor ids, in coordinate order. */
@@ -49,6 +55,8 @@ export interface ComparatorContext {
   plannedLevels: number[][];
   hasInteractions: boolean;
   hasSquares: boolean;
+  /** Parameters of the target model (intercept included): sizes the evaluation of each plan. */
+  p: number;
   factors: Factor[];
   region?: CandidateRegion;
   /** Region over every operating factor (coordinates in `operatingIds` order), for the conventional plan. */
@@ -102,6 +110,12 @@ function finish(context: ComparatorContext, design: DesignCore, notes: string[] 
   return { ...design, levelChanges, notes, ...runPlacement(context.region, points) };
 }
 
+/** Why a plan of `runs` runs is not evaluated on the target model, or null when it is. */
+function tooLargeToEvaluate(context: ComparatorContext, runs: number): string | null {
+  if (runs * context.p * context.p <= EVALUATION_WORK) return null;
+  return `${runs} runs on a ${context.p}-term model is too large to evaluate within the time budget`;
+}
+
 function unbuilt(id: ComparatorId, label: string, reason: string): ComparatorDesign {
   return { id, label, points: null, reason, levelChanges: null, notes: [], offLimitsRuns: 0, runsOutsideRange: 0 };
 }
@@ -112,6 +126,8 @@ function conventional(context: ComparatorContext): ComparatorDesign {
   const c = context.centreRuns;
   const label = comparatorLabel.conventional(K, c);
   if (K > MAX_CONVENTIONAL_FACTORS) return unbuilt('conventional', label, `2^${K} = ${2 ** K} runs is too large to build and evaluate`);
+  const tooLarge = tooLargeToEvaluate(context, 2 ** K + c);
+  if (tooLarge) return unbuilt('conventional', label, tooLarge);
   const all = withCentres(twoLevelFullFactorial(K), K, c);
   const columns = context.variedIds.map((id) => context.operatingIds.indexOf(id));
   const points = all.map((x) => columns.map((j) => x[j]));
@@ -130,6 +146,8 @@ function fullFactorial(context: ComparatorContext): ComparatorDesign {
   const c = context.centreRuns;
   const label = comparatorLabel.fullFactorial(k, c);
   if (k > MAX_CONVENTIONAL_FACTORS) return unbuilt('full-factorial', label, `2^${k} = ${2 ** k} runs is too large to build and evaluate`);
+  const tooLarge = tooLargeToEvaluate(context, 2 ** k + c);
+  if (tooLarge) return unbuilt('full-factorial', label, tooLarge);
   return finish(context, {
     id: 'full-factorial',
     label,
@@ -142,14 +160,18 @@ function fractional(context: ComparatorContext): ComparatorDesign {
   const c = context.centreRuns;
   const minResolution = context.hasInteractions ? 5 : 4;
   const roman = romanNumeral(minResolution);
-  const fraction = minimumAberrationFraction(k, minResolution);
-  if (!fraction) {
+  const unbuiltLabel = comparatorLabel.fractionNotFound(minResolution, c);
+  if (k > MAX_LETTERED_FACTORS) {
     return unbuilt(
       'fractional',
-      comparatorLabel.fractionNotFound(minResolution, c),
-      `no regular fraction of ${k} factors reaches resolution ${roman}`,
+      unbuiltLabel,
+      `not built for ${k} factors, because regular fractions are built here for at most ${MAX_LETTERED_FACTORS} (one letter A–Z, I skipped, per factor)`,
     );
   }
+  const fraction = minimumAberrationFraction(k, minResolution);
+  if (!fraction) return unbuilt('fractional', unbuiltLabel, `no regular fraction of ${k} factors reaches resolution ${roman}`);
+  const tooLarge = tooLargeToEvaluate(context, fraction.runs + c);
+  if (tooLarge) return unbuilt('fractional', unbuiltLabel, tooLarge);
   const label =
     fraction.p === 0
       ? comparatorLabel.fractionIsFull(k, minResolution, c)
@@ -185,6 +207,8 @@ function grid(context: ComparatorContext): ComparatorDesign {
   if (size > ENUMERATION_LIMIT) {
     return unbuilt('full-grid', comparatorLabel.fullGrid(counts), `${size} combinations is too large to build and evaluate`);
   }
+  const tooLarge = tooLargeToEvaluate(context, size);
+  if (tooLarge) return unbuilt('full-grid', comparatorLabel.fullGrid(counts), tooLarge);
   const all = fullGrid(context.plannedLevels);
   const region = context.region;
   const points = region ? all.filter((x) => region.isFeasible(x)) : all;
@@ -204,8 +228,9 @@ function grid(context: ComparatorContext): ComparatorDesign {
 function responseSurfacePlans(context: ComparatorContext): ComparatorDesign[] {
   const k = context.variedIds.length;
   const c = context.centreRuns;
-  if (k > MAX_CONVENTIONAL_FACTORS) {
-    const reason = `its 2^${k} = ${2 ** k}-run cube is too large to build and evaluate`;
+  const cubeTooLarge = k > MAX_CONVENTIONAL_FACTORS ? `its 2^${k} = ${2 ** k}-run cube is too large to build and evaluate` : tooLargeToEvaluate(context, 2 ** k + 2 * k + c);
+  if (cubeTooLarge) {
+    const reason = cubeTooLarge;
     return [
       unbuilt('ccd-face', comparatorLabel.ccdFace(), reason),
       unbuilt('ccd-rotatable', comparatorLabel.ccdRotatable(), reason),

@@ -17,6 +17,7 @@
  */
 import { InputError } from '../inputError.js';
 import type { Criterion } from '../study.js';
+import { aboveLimit, limitOf } from '../inputLimits.js';
 import { modelMatrix, type CompiledModel } from '../model/modelMatrix.js';
 import { regionMoments } from '../evaluate/regionMoments.js';
 import { dEfficiency, iCriterion, logDetPerRun } from '../evaluate/designCriteria.js';
@@ -30,6 +31,13 @@ import { createRandom } from '../random.js';
 
 /** Largest N·n·p² (multiply-adds per point-exchange pass) for which the Fedorov pass is run. */
 const FEDOROV_BUDGET = 2e7;
+/**
+ * Work units of one constraint evaluation (a compiled mathjs expression, about 1 µs against
+ * about 2.5 ns per multiply-add on the reference machine; bench/limits.ts).
+ */
+const CONSTRAINT_WORK = 400;
+/** Work units of setting up one start, whatever its size. */
+const START_WORK = 1e4;
 /** Safety cap on passes per start; searches converge in far fewer. */
 const MAX_PASSES = 200;
 
@@ -65,6 +73,53 @@ export interface ExactDesignResult {
   passes?: number;
 }
 
+/**
+ * Work of one exchange pass of one start, in multiply-adds: for each of the N rows, its
+ * preparation and the rank-two update (2p²) and every level trial of every factor (p·t_j for
+ * the t_j terms containing factor j, copying the row and the feasibility check with its
+ * constraints); then the
+ * refresh (N·p² + p³) and, when it runs, the point-exchange pass (at most FEDOROV_BUDGET).
+ * Searches converge in 5 to 40 passes (bench/limits.ts), so starts × this, the search work,
+ * bounds the time of the whole search.
+ */
+export function passWork(model: CompiledModel, region: CandidateRegion, runs: number): number {
+  const { p } = model;
+  const k = model.factorIds.length;
+  let trials = 0;
+  for (let j = 0; j < k; j++) {
+    let terms = 0;
+    for (let t = 0; t < p; t++) if (model.exponents[t * k + j] !== 0) terms++;
+    const others = (region.levels[j]?.length ?? 1) - 1;
+    // A trial also copies the row (p) and snaps every coordinate to its level in the feasibility check (about 10k).
+    trials += others * (p * terms + 2 * p + 10 * k + CONSTRAINT_WORK * (region.constraintCount ?? 0));
+  }
+  // The point exchange runs only within its own budget (see fedorovCandidates).
+  const pointExchange = region.points === null ? Number.POSITIVE_INFINITY : runs * region.points.length * p * p;
+  const fedorov = pointExchange <= FEDOROV_BUDGET ? pointExchange : 0;
+  // The fixed part covers a start's set-up: drawing its random points, sorting, bookkeeping.
+  return runs * (3 * p * p + trials) + p * p * p + fedorov + START_WORK;
+}
+
+/**
+ * Refuses, before any work, a search whose work (starts × passWork) is past the
+ * `searchWork` limit, naming the largest number of starts that fits or, when not even one
+ * does, what to make smaller.
+ */
+export function checkSearchWork(model: CompiledModel, region: CandidateRegion, runs: number, starts: number): void {
+  const perStart = passWork(model, region, runs);
+  const limit = limitOf('searchWork');
+  if (starts * perStart <= limit) return;
+  const fits = Math.floor(limit / perStart);
+  const size = `${starts} start${starts === 1 ? '' : 's'} of a ${runs}-run search for ${model.p} model terms over ${model.factorIds.length} factors`;
+  const advice =
+    fits >= 1
+      ? `use at most ${fits} start${fits === 1 ? '' : 's'}, fewer runs or a smaller model`
+      : 'even one start is too much: use fewer runs, a smaller model, fewer levels or fewer varied factors';
+  throw new InputError(`${size} is ${(starts * perStart).toExponential(1).replace('e+', 'e')} work units, ${aboveLimit('searchWork')}; ${advice}`, {
+    key: 'design.starts',
+  });
+}
+
 export function findExactDesign(request: ExactDesignRequest): ExactDesignResult {
   const { model, region, runs, criterion, seed, starts } = request;
   const { p } = model;
@@ -77,6 +132,7 @@ export function findExactDesign(request: ExactDesignRequest): ExactDesignResult 
   if (!Number.isInteger(starts) || starts < 1) {
     throw new InputError(`the number of search starts must be a whole number of at least 1, not ${starts}`, { key: 'design.starts' });
   }
+  checkSearchWork(model, region, runs, starts);
   checkRegionSupport(model, region);
   const candidates = fedorovCandidates(model, region, runs);
   // Computed on first use, so an empty region is reported as such rather than as a moment failure.

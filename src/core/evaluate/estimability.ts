@@ -14,7 +14,7 @@
  * Surfaces", §10; Montgomery, 2017, "Design and Analysis of Experiments", 9th ed., §8.2).
  * Column j of A says which estimated terms absorb the dropped term j, and by how much.
  */
-import { symmetricInverse } from '../linalg/cholesky.js';
+import { householderQr, solveLeastSquares } from '../linalg/householderQr.js';
 
 /** Relative residual norm at or below which a column counts as dependent (coded units, |x| ≤ ~1.7). */
 const RANK_TOLERANCE = 1e-9;
@@ -79,7 +79,7 @@ export function estimability(X: Float64Array, N: number, p: number, termLabels: 
       const aliasedWith: AliasPartner[] = [];
       kept.forEach((e, r) => {
         const coefficient = A[r * dropped.length + d];
-        if (Math.abs(coefficient) > ALIAS_REPORT_TOLERANCE) aliasedWith.push({ term: termLabels[e], coefficient: round(coefficient) });
+        if (Number.isFinite(coefficient) && Math.abs(coefficient) > ALIAS_REPORT_TOLERANCE) aliasedWith.push({ term: termLabels[e], coefficient: round(coefficient) });
       });
       nonEstimable.push({ term: termLabels[c], aliasedWith });
     });
@@ -89,28 +89,20 @@ export function estimability(X: Float64Array, N: number, p: number, termLabels: 
 
 /**
  * Alias matrix A = (X1'X1)⁻¹ X1'X2, row-major p1 × p2, for N-row model matrices X1 (fitted
- * terms, full column rank) and X2 (terms left out of the fit).
+ * terms, full column rank) and X2 (terms left out of the fit). Column b of A is the
+ * least-squares fit of X2's column b on X1, solved by Householder QR (householderQr.ts), never
+ * through X1'X1: on a badly scaled plan (settings far outside the coded range) the normal
+ * equations lose the rank the orthogonalisation above found. A coefficient QR cannot resolve
+ * (a column it finds dependent at its own tolerance) is NaN and is left out of the report.
  */
 export function aliasMatrix(X1: Float64Array, X2: Float64Array, N: number, p1: number, p2: number): Float64Array {
-  const M = new Float64Array(p1 * p1);
-  const C = new Float64Array(p1 * p2);
-  for (let i = 0; i < N; i++) {
-    for (let a = 0; a < p1; a++) {
-      const value = X1[i * p1 + a];
-      if (value === 0) continue;
-      for (let b = 0; b < p1; b++) M[a * p1 + b] += value * X1[i * p1 + b];
-      for (let b = 0; b < p2; b++) C[a * p2 + b] += value * X2[i * p2 + b];
-    }
-  }
-  const inverse = symmetricInverse(M, p1);
-  if (!inverse) throw new Error('alias matrix needs fitted columns of full rank');
+  const factor = householderQr(X1, N, p1);
   const A = new Float64Array(p1 * p2);
-  for (let a = 0; a < p1; a++) {
-    for (let b = 0; b < p2; b++) {
-      let sum = 0;
-      for (let m = 0; m < p1; m++) sum += inverse[a * p1 + m] * C[m * p2 + b];
-      A[a * p2 + b] = sum;
-    }
+  const column = new Float64Array(N);
+  for (let b = 0; b < p2; b++) {
+    for (let i = 0; i < N; i++) column[i] = X2[i * p2 + b];
+    const { coefficients } = solveLeastSquares(factor, column);
+    for (let a = 0; a < p1; a++) A[a * p2 + b] = coefficients[a];
   }
   return A;
 }

@@ -10,6 +10,7 @@
  */
 import type { Study } from '../study.js';
 import { InputError } from '../inputError.js';
+import { aboveLimit, checkLimit, limitOf } from '../inputLimits.js';
 import { decideTiers } from '../sensitivity/decideTiers.js';
 import { planLevels } from '../design/levels.js';
 import { deriveModel } from '../design/modelFromTiers.js';
@@ -17,7 +18,7 @@ import { buildCandidateRegion } from '../region/candidateRegion.js';
 import { centrePoint } from '../design/centreRuns.js';
 import { chooseHoldoutRuns, defaultHoldoutCount } from '../design/holdoutRuns.js';
 import { settingsFor } from '../design/settings.js';
-import { findExactDesign } from '../design/exactDesign.js';
+import { checkSearchWork, findExactDesign } from '../design/exactDesign.js';
 import { boundForRegion } from '../design/continuousBound.js';
 import { defaultRunCount } from '../design/runCount.js';
 import { regionMoments } from '../evaluate/regionMoments.js';
@@ -53,9 +54,17 @@ export function buildPlan(study: Study, options: BuildPlanOptions): PlanDocument
       { key: 'policy.moderate' },
     );
   }
+  if (varied.length > limitOf('variedFactors')) {
+    throw new InputError(
+      `${varied.length} operating factors would be varied, ${aboveLimit('variedFactors')}; fix the least important at their nominal (raise policy.moderate) or screen them first`,
+      { key: 'factors' },
+    );
+  }
   const factorIds = varied.map((level) => level.id);
 
   const derived = deriveModel(levels, tiers, study.policy, design.model, { interactionTable: study.interactions.length > 0 });
+  // A derived model grows with the interacting pairs; refuse it before any matrix is built.
+  checkLimit('modelTerms', derived.terms.length, { key: 'design.model' }, 'model terms');
   const model = compileModel(derived.terms, factorIds);
   const planModel: PlanModel = {
     intercept: true,
@@ -77,6 +86,8 @@ export function buildPlan(study: Study, options: BuildPlanOptions): PlanDocument
     );
   }
 
+  // Refuse a search past its work limit before the region moments and the search itself.
+  checkSearchWork(model, region, runCount.runs, design.starts);
   const moments = regionMoments(model, region, design.seed);
   progress(`searching for a ${design.criterion}-optimal ${runCount.runs}-run plan (${design.starts} starts)`);
   const exact = findExactDesign({

@@ -44,6 +44,8 @@ export interface CandidateRegion {
   gridSize: number;
   /** Every feasible grid point, when the grid is small enough to enumerate; else null. */
   points: number[][] | null;
+  /** Constraint expressions `isFeasible` evaluates (0 or absent: limits only); sizes the search's work. */
+  constraintCount?: number;
 }
 
 /** What the region reads of one operating factor's levels (the levels stage adds the why). */
@@ -182,5 +184,5 @@ export function buildCandidateRegion(
     }
   }
 
-  return { factorIds: axes.map((a) => a.id), levels: levelSets, isFeasible, gridSize, points, axes };
+  return { factorIds: axes.map((a) => a.id), levels: levelSets, isFeasible, gridSize, points, axes, constraintCount: compiled.length };
 }

@@ -11,3 +11,12 @@ export const RESERVED_WORDS: ReadonlySet<string> = new Set([
   'e', 'E', 'pi', 'PI', 'i', 'tau', 'phi', 'Infinity', 'NaN', 'true', 'false', 'null', 'undefined',
   'and', 'or', 'not', 'xor', 'mod', 'to', 'in', 'end',
 ]);
+
+/**
+ * The functions a constraint may call (mathjs names). Anything else — `evaluate`, `parse`,
+ * `simplify`, `import`, `unit`, `matrix` and the rest of mathjs — is refused by the parser.
+ */
+export const CONSTRAINT_FUNCTIONS: ReadonlySet<string> = new Set([
+  'abs', 'sqrt', 'cbrt', 'exp', 'log', 'log10', 'log2', 'pow', 'min', 'max', 'round', 'floor', 'ceil', 'sign',
+  'sin', 'cos', 'tan',
+]);

@@ -271,6 +271,7 @@ describe('buildComparators: 17 varied factors', () => {
     plannedLevels: ids.map(() => [-1, 0, 1]),
     hasInteractions: false,
     hasSquares: true,
+    p: 35,
     factors: ids.map((id) => operatingFactor(id, 0, 1)),
   });
   const design = (id: ComparatorId) => designs.find((d) => d.id === id)!;
@@ -285,5 +286,58 @@ describe('buildComparators: 17 varied factors', () => {
     expect(design('full-grid').reason).toMatch(/129140163 combinations is too large/); // 3^17
     expect(design('plackett-burman').points).toHaveLength(21); // 20 runs + 1 centre run
     expect(design('fractional').resolution).toBeGreaterThanOrEqual(4);
+  });
+});
+
+describe('buildComparators: any number of varied factors', () => {
+  // Every comparator either builds its plan or says why not ("not built for k factors,
+  // because …"); none may throw, from 1 factor to past the varied-factor limit.
+  const context = (k: number, model: 'linear' | 'interactions' | 'quadratic') => {
+    const ids = Array.from({ length: k }, (_, j) => `f${j + 1}`);
+    const pairs = model === 'linear' ? 0 : (k * (k - 1)) / 2;
+    return {
+      variedIds: ids,
+      operatingIds: ids,
+      hardToChange: [],
+      centreRuns: 3,
+      plannedLevels: ids.map(() => [-1, 0, 1]),
+      hasInteractions: model !== 'linear',
+      hasSquares: model === 'quadratic',
+      p: 1 + k + pairs + (model === 'quadratic' ? k : 0),
+      factors: ids.map((id) => operatingFactor(id, 0, 1)),
+    };
+  };
+
+  // Fraction searches of 16 to 25 factors take about a second each, so only the linear model visits them all.
+  const FEW = [1, 2, 3, 4, 5, 6, 7, 8, 12, 26, 30, 40];
+  it.each([
+    ['linear', [...FEW, 16, 20, 25]],
+    ['interactions', FEW],
+    ['quadratic', FEW],
+  ] as const)('%s models, 1 to 40 factors: every row built or explained', (model, counts) => {
+    for (const k of counts) {
+      const designs = buildComparators(context(k, model));
+      expect(designs.map((d) => d.id)).toEqual(['conventional', 'full-factorial', 'fractional', 'plackett-burman', 'full-grid', 'ccd-face', 'ccd-rotatable', 'box-behnken']);
+      for (const design of designs) {
+        if (design.points === null) expect(design.reason, `${design.id}, k = ${k}`).toMatch(/\S/);
+        else expect(design.points.every((point) => point.length === k), `${design.id}, k = ${k}`).toBe(true);
+      }
+    }
+  });
+
+  it('names why the fraction is not built past 25 factors', () => {
+    const fraction = buildComparators(context(26, 'linear')).find((d) => d.id === 'fractional')!;
+    expect(fraction.points).toBeNull();
+    expect(fraction.reason).toBe('not built for 26 factors, because regular fractions are built here for at most 25 (one letter A–Z, I skipped, per factor)');
+  });
+
+  it('leaves a cube unevaluated when its runs × p² is past the evaluation budget', () => {
+    // 2^16 + 3 runs on the 153-term quadratic of 16 factors is 1.5e9 multiply-adds per pass.
+    const designs = buildComparators(context(16, 'quadratic'));
+    const full = designs.find((d) => d.id === 'full-factorial')!;
+    expect(full.points).toBeNull();
+    expect(full.reason).toBe('65539 runs on a 153-term model is too large to evaluate within the time budget');
+    // The same cube on the 17-term linear model is built.
+    expect(buildComparators(context(16, 'linear')).find((d) => d.id === 'full-factorial')!.points).toHaveLength(65539);
   });
 });

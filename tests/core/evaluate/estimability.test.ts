@@ -27,6 +27,18 @@ describe('alias matrix (Box & Draper; Montgomery §8.2)', () => {
     // Rows 1, A, B, C; columns AB, AC, BC.
     expect(A).toEqual([0, 0, 0, 0, 0, 1, 0, 1, 0, 1, 0, 0]);
   });
+
+  it('stays exact on a badly scaled design whose normal equations are singular in double precision', () => {
+    // x = 1e8, 1e8 + 1, 1e8 + 2: X1'X1 has condition ~1e17 (Cholesky fails), yet the columns
+    // [1, x] are independent; the dropped column 1 + 2x is exactly 1·(1) + 2·(x). The slope
+    // is well determined; the intercept only to about 2e8·ε·κ, so it is checked loosely.
+    const x = [1e8, 1e8 + 1, 1e8 + 2];
+    const X1 = Float64Array.from(x.flatMap((v) => [1, v]));
+    const X2 = Float64Array.from(x.map((v) => 1 + 2 * v));
+    const A = aliasMatrix(X1, X2, 3, 2, 1);
+    expect(Math.abs(A[0] - 1)).toBeLessThan(10);
+    expect(A[1]).toBeCloseTo(2, 7);
+  });
 });
 
 describe('estimability', () => {
