@@ -10,7 +10,8 @@ import type { PlanDocument } from '../core/plan/planDocument.js';
 import type { ComparatorRow, Comparison } from '../core/compare/comparisonTypes.js';
 import { comparatorTableName, type ComparatorNaming } from '../core/compare/comparatorNames.js';
 import { counted } from '../core/countedNoun.js';
-import { displayWidth, formatNumber, renderTable, type TextColumn } from '../io/textTable.js';
+import { displayWidth, renderTable, type TextColumn } from '../io/textTable.js';
+import { significantText } from '../io/numberText.js';
 
 /** Width the prose is wrapped to (the tables are about as wide). */
 const TEXT_WIDTH = 100;
@@ -94,7 +95,7 @@ export function compareSummary(comparison: Comparison, plan: PlanDocument): stri
     lines.push(termTable.replace(/\n+$/, ''));
     const detail = [
       residualText(proposed, comparison.p),
-      proposed.aCriterion != null ? `A-criterion ${formatNumber(proposed.aCriterion)} σ² (average coefficient variance)` : null,
+      proposed.aCriterion != null ? `A-criterion ${significantText(proposed.aCriterion)} σ² (average coefficient variance)` : null,
       proposed.gEfficiency != null
         ? `G-efficiency ${fixed(proposed.gEfficiency, 1)} % (the floor p/N of the scaled prediction variance against its worst value, ${proposed.gEfficiencyBasis ?? 'over the region'})`
         : null,
@@ -155,7 +156,7 @@ function aliasText(row: ComparatorRow): string {
       if (alias.aliasedWith.length === 0) return `${alias.term} (constant over the plan)`;
       const partners = alias.aliasedWith
         .slice(0, MAX_PARTNERS)
-        .map((partner) => (Math.abs(partner.coefficient - 1) < 1e-9 ? partner.term : `${formatNumber(partner.coefficient)}·${partner.term}`));
+        .map((partner) => (Math.abs(partner.coefficient - 1) < 1e-9 ? partner.term : `${significantText(partner.coefficient)}·${partner.term}`));
       const more = alias.aliasedWith.length > MAX_PARTNERS ? ` and ${alias.aliasedWith.length - MAX_PARTNERS} more` : '';
       return `${alias.term} with ${partners.join(', ')}${more}`;
     })

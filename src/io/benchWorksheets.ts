@@ -17,7 +17,8 @@ import type { PlannedRun, RunPurpose } from '../core/design/designTypes.js';
 import type { Factor } from '../core/study.js';
 import { InputError } from '../core/inputError.js';
 import { renderTemplate } from './templateRendering.js';
-import { decimalsOf, PURPOSE_WORDS, roundTo } from './runSheetTable.js';
+import { PURPOSE_WORDS } from './runSheetTable.js';
+import { settingText } from './numberText.js';
 
 // Titles are the run sheets' words (PURPOSE_WORDS), so paper and spreadsheet name a run alike.
 const PURPOSE_TEXT: Record<RunPurpose, { title: string; hint: string }> = {
@@ -25,20 +26,6 @@ const PURPOSE_TEXT: Record<RunPurpose, { title: string; hint: string }> = {
   centre: { title: PURPOSE_WORDS.centre, hint: 'Repeated at the middle of the ranges to measure run-to-run scatter and drift.' },
   holdout: { title: PURPOSE_WORDS.holdout, hint: 'Not used for fitting: checks the model’s predictions afterwards.' },
 };
-
-/**
- * A setting as the worksheets and the report print it: on the factor's settable step, with the
- * decimals that step implies (0.1 → 1, 0.25 → 2, 5 → 0), the same rounding as the run sheets
- * (`runSheetTable.ts`), so the bench page and the spreadsheet never disagree.
- */
-export function formatSetting(value: number, precision: number | undefined): string {
-  if (precision !== undefined && precision > 0) {
-    const decimals = decimalsOf(precision);
-    return roundTo(value, precision, decimals).toFixed(decimals);
-  }
-  // No precision given: six significant figures, trailing zeros dropped.
-  return String(Number(value.toPrecision(6)));
-}
 
 interface SetPointView {
   name: string;
@@ -77,6 +64,11 @@ function executionOrder(plan: PlanDocument, schedule: Schedule | undefined): { o
 
 function worksheetViews(plan: PlanDocument, order: ScheduledRun[], sessionLabel: string, hardToChange: Set<string>): WorksheetView[] {
   const factorById = new Map<string, Factor>(plan.study.factors.map((factor) => [factor.id, factor]));
+  const factorOf = (id: string): Factor => {
+    const factor = factorById.get(id);
+    if (!factor) throw new Error(`plan levels name ${id}, which is not a study factor`);
+    return factor;
+  };
   const runByPoint = new Map<string, PlannedRun>(plan.runs.map((run) => [run.point, run]));
   const varied = plan.levels.filter((level) => level.varied);
   const fixed = plan.levels.filter((level) => !level.varied && level.fixedAt !== null && factorById.get(level.id)?.role !== 'model');
@@ -105,7 +97,7 @@ function worksheetViews(plan: PlanDocument, order: ScheduledRun[], sessionLabel:
           : 'same as previous run';
       return {
         name: level.name,
-        value: formatSetting(setting, factor?.precision),
+        value: settingText(setting, factorOf(level.id)),
         unit: level.unit,
         changed,
         changeText,
@@ -114,7 +106,7 @@ function worksheetViews(plan: PlanDocument, order: ScheduledRun[], sessionLabel:
     });
     const fixedSettings = fixed.map((level) => ({
       name: level.name,
-      value: formatSetting(run.settings[level.id] ?? (level.fixedAt as number), factorById.get(level.id)?.precision),
+      value: settingText(run.settings[level.id] ?? (level.fixedAt as number), factorOf(level.id)),
       unit: level.unit,
     }));
     const steps = [

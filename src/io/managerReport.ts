@@ -22,7 +22,7 @@ import { renderTemplate } from './templateRendering.js';
 import { indexChartSvg } from './charts/indexChart.js';
 import { sweepSlice, thresholdSweepChartSvg } from './charts/thresholdSweepChart.js';
 import { COMPARATOR_SHORT_NAME, predictionVarianceChartSvg } from './charts/predictionVarianceChart.js';
-import { formatSetting } from './benchWorksheets.js';
+import { settingText } from './numberText.js';
 import { PURPOSE_WORDS } from './runSheetTable.js';
 
 const DASH = '—';
@@ -215,7 +215,8 @@ function runRows(plan: PlanDocument, schedule: Schedule | undefined) {
         purpose: run ? PURPOSE_WORDS[run.purpose] : DASH,
         settings: varied.map((level) => {
           const value = run?.settings[level.id];
-          return value === undefined ? DASH : formatSetting(value, factorById.get(level.id)?.precision);
+          const factor = factorById.get(level.id);
+          return value === undefined || !factor ? DASH : settingText(value, factor);
         }),
       };
     }),
@@ -253,6 +254,10 @@ export async function managerReportHtml(plan: PlanDocument, schedule: Schedule |
   const fitRuns = plan.runs.filter((run) => run.purpose === 'fit').length;
   const centreRuns = plan.runs.filter((run) => run.purpose === 'centre').length;
   const holdoutRuns = plan.runs.filter((run) => run.purpose === 'holdout').length;
+  const settingOf = (id: string, value: number): string => {
+    const factor = plan.study.factors.find((candidate) => candidate.id === id);
+    return factor ? settingText(value, factor) : DASH;
+  };
 
   return renderTemplate('managerReport', {
     title: plan.study.title,
@@ -297,8 +302,8 @@ export async function managerReportHtml(plan: PlanDocument, schedule: Schedule |
       unit: level.unit,
       tier: level.tier,
       settings: level.varied
-        ? level.values.map((value) => formatSetting(value, plan.study.factors.find((factor) => factor.id === level.id)?.precision)).join(', ')
-        : `fixed at ${level.fixedAt === null ? DASH : formatSetting(level.fixedAt, plan.study.factors.find((factor) => factor.id === level.id)?.precision)}`,
+        ? level.values.map((value) => settingOf(level.id, value)).join(', ')
+        : `fixed at ${level.fixedAt === null ? DASH : settingOf(level.id, level.fixedAt)}`,
       reason: level.reason,
     })),
     modelTerms: plan.model.explained,

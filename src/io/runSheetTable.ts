@@ -7,9 +7,9 @@
  *   engineering units, one empty entry column per response, then operator, date and remarks.
  * - Headers carry the unit in square brackets, `Inlet air temperature [°C]`, as the other
  *   tables of the tool do (`withUnit` of `textTable.ts`); a unit of `-` or none is left out.
- * - Settings are rounded to the factor's precision; the number of decimals shown is the number
- *   of decimals of the precision (0.5 → 1, 100 → 0). Without a precision, the decimals of
- *   the plan's own level values are used (at most 6).
+ * - Settings are the plan's own values on the factor's settable step, shown with the decimals of
+ *   that step (`settingValue` / `settingDecimals`; the step is the precision, or the implied
+ *   significant-figure step of core levels.ts when the study gives none).
  * - A setting outside the factor's equipment limits is refused here as well, as a last guard
  *   before anything reaches the bench.
  */
@@ -18,6 +18,8 @@ import type { RunPurpose } from '../core/design/designTypes.js';
 import type { PlanDocument } from '../core/plan/planDocument.js';
 import type { Schedule } from '../core/schedule/scheduleTypes.js';
 import { withUnit } from './textTable.js';
+import { settingValue } from './numberText.js';
+import { settingDecimals } from '../core/design/levels.js';
 
 export type ColumnKind = 'sequence' | 'session' | 'point' | 'purpose' | 'factor' | 'response' | 'operator' | 'date' | 'remarks';
 
@@ -61,28 +63,12 @@ export const SAFETY_CAUTION =
 
 export const FILL_IN_HINT = 'Enter each measured result in its column, in the unit shown; note anything unusual under Remarks.';
 
-/** Decimals needed to show multiples of `step` exactly (0.5 → 1, 0.25 → 2, 100 → 0). */
-export function decimalsOf(step: number): number {
-  for (let d = 0; d <= 10; d++) {
-    const scaled = step * 10 ** d;
-    if (Math.abs(scaled - Math.round(scaled)) < 1e-9 * Math.max(1, Math.abs(scaled))) return d;
-  }
-  return 10;
-}
-
-/** `value` on the factor's settable step, shown with `decimals` digits; never `-0`. */
-export function roundTo(value: number, step: number | undefined, decimals: number): number {
-  const stepped = step && step > 0 ? Math.round(value / step) * step : value;
-  const rounded = Number(stepped.toFixed(decimals));
-  return rounded === 0 ? 0 : rounded;
-}
-
 export function runSheetTable(plan: PlanDocument, schedule: Schedule): RunSheetTable {
   const factorById = new Map(plan.study.factors.map((factor) => [factor.id, factor]));
-  const decimalsFor = (id: string, values: number[]): number => {
-    const precision = factorById.get(id)?.precision;
-    if (precision !== undefined && precision > 0) return decimalsOf(precision);
-    return Math.min(6, Math.max(0, ...values.map((value) => decimalsOf(Math.abs(value)))));
+  const factorOf = (id: string) => {
+    const factor = factorById.get(id);
+    if (!factor) throw new Error(`plan levels name ${id}, which is not a study factor`);
+    return factor;
   };
 
   const varied = plan.levels.filter((level) => level.varied);
@@ -97,7 +83,7 @@ export function runSheetTable(plan: PlanDocument, schedule: Schedule): RunSheetT
       id: level.id,
       name: level.name,
       unit: level.unit,
-      decimals: decimalsFor(level.id, plan.runs.map((run) => run.settings[level.id]).filter(Number.isFinite)),
+      decimals: settingDecimals(factorOf(level.id)),
     })),
     ...plan.study.responses.map((response) => ({
       kind: 'response' as const,
@@ -129,9 +115,9 @@ export function runSheetTable(plan: PlanDocument, schedule: Schedule): RunSheetT
           const id = column.id!;
           const value = run.settings[id];
           if (!Number.isFinite(value)) throw new Error(`run ${run.point} has no setting for ${id}`);
-          const factor = factorById.get(id);
-          const shown = roundTo(value, factor?.precision, column.decimals!);
-          if (factor?.limits && (shown < factor.limits.low || shown > factor.limits.high)) {
+          const factor = factorOf(id);
+          const shown = settingValue(value, factor);
+          if (factor.limits && (shown < factor.limits.low || shown > factor.limits.high)) {
             throw new InputError(
               `run ${run.point} sets ${factor.name} to ${shown} ${factor.unit}, outside the equipment limits ${factor.limits.low}–${factor.limits.high}; the run sheet is refused`,
               { key: `factors.${id}.limits` },
@@ -148,12 +134,12 @@ export function runSheetTable(plan: PlanDocument, schedule: Schedule): RunSheetT
   const fixed: FixedSetting[] = plan.levels
     .filter((level) => !level.varied && level.fixedAt !== null)
     .map((level) => {
-      const decimals = decimalsFor(level.id, [level.fixedAt!]);
+      const factor = factorOf(level.id);
       return {
         id: level.id,
         label: withUnit(level.name, level.unit),
-        value: roundTo(level.fixedAt!, factorById.get(level.id)?.precision, decimals),
-        decimals,
+        value: settingValue(level.fixedAt!, factor),
+        decimals: settingDecimals(factor),
       };
     });
 

@@ -3,7 +3,7 @@
  * self-containment, escaping, the caution on every run page and the stated references.
  */
 import { describe, expect, it } from 'vitest';
-import { benchWorksheetsHtml, formatSetting } from '../../src/io/benchWorksheets.js';
+import { benchWorksheetsHtml } from '../../src/io/benchWorksheets.js';
 import { managerReportHtml, runsOutsideLimits, splitDecision } from '../../src/io/managerReport.js';
 import { InputError } from '../../src/core/inputError.js';
 import { makeHostilePlanFixture, makePlanFixture, makeSchedule } from '../fixtures/plan/sprayDryerPlan.js';
@@ -28,21 +28,6 @@ function expectSelfContained(html: string): void {
 function runPages(html: string): string[] {
   return html.split('<section class="run-page"').slice(1);
 }
-
-describe('formatSetting', () => {
-  it('prints the decimals the settable step implies', () => {
-    expect(formatSetting(12, 0.1)).toBe('12.0');
-    expect(formatSetting(37.5, 0.5)).toBe('37.5');
-    expect(formatSetting(1.25, 0.25)).toBe('1.25');
-    expect(formatSetting(20000, 100)).toBe('20000');
-    expect(formatSetting(180, 1)).toBe('180');
-    // Off-step values land on the step, as on the run sheets: 37.3 → 37.5 (step 0.5), 172 → 170 (step 5).
-    expect(formatSetting(37.3, 0.5)).toBe('37.5');
-    expect(formatSetting(172, 5)).toBe('170');
-    expect(formatSetting(-0.04, 0.1)).toBe('0.0');
-    expect(formatSetting(1 / 3, undefined)).toBe('0.333333');
-  });
-});
 
 describe('bench worksheets', () => {
   it('has one page block per scheduled run, in execution order, each with the caution', async () => {

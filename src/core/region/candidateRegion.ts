@@ -22,6 +22,7 @@ import { uniformInt } from 'pure-rand/distribution/uniformInt';
 import { InputError } from '../inputError.js';
 import type { Factor } from '../study.js';
 import { toEngineering } from './codedUnits.js';
+import { settingStep } from '../design/levels.js';
 import { gridPoints } from './gridPoints.js';
 import { compileConstraint, constraintHolds } from './constraintLanguage.js';
 import { createRandom } from '../random.js';
@@ -103,7 +104,7 @@ export function buildCandidateRegion(
       id: l.id,
       low: f.low,
       high: f.high,
-      precision: f.precision,
+      precision: settingStep(f),
       values: order.map((i) => l.values[i]),
       coded: order.map((i) => l.coded[i]),
     };
