@@ -49,6 +49,15 @@ function fixedGrouped(value: number, decimals: number): string {
   return text;
 }
 
+/**
+ * `value` rounded to `decimals` decimals by the same rule as the texts, for cells that must
+ * stay numbers (workbook sheets show it with a number format of the same decimals).
+ */
+export function rounded(value: number, decimals: number): number {
+  const result = roundToPrecision(value, Number(`1e-${decimals}`));
+  return result === 0 ? 0 : result;
+}
+
 /** `value` with exactly `decimals` decimals, ungrouped; halves up; never `-0`. */
 export function fixedText(value: Maybe, decimals: number): string {
   if (!present(value)) return ABSENT;
