@@ -60,7 +60,7 @@ describe('the bundled spray-dryer sample', () => {
     expect(study.constraints).toEqual(['feed_rate <= 0.2 * inlet_temp - 18']);
     expect(study.design).toEqual({ ...DEFAULT_DESIGN, seed: 20261201 });
     expect(study.policy).toEqual(DEFAULT_POLICY);
-    expect(study.sessions).toEqual({ maxRuns: 6, label: 'Day', hours: 8 });
+    expect(study.sessions).toEqual({ maxRuns: 6, label: 'Day', hours: 22 });
     expect(study.costs).toEqual({ currency: 'EUR', perRun: 850, hoursPerRun: 3, perLevelChange: { cost: 120, hours: 0.7 } });
     expect(study.source).toEqual({
       studyFile: 'samples/spray-dryer/study.yaml',

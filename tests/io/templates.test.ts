@@ -1,10 +1,10 @@
 /**
- * Bench worksheets and manager report rendered from the hand-made plan fixture: structure,
+ * Lab worksheets and manager report rendered from the hand-made plan fixture: structure,
  * self-containment, escaping, the caution on every run page and the stated references.
  */
 import { describe, expect, it } from 'vitest';
-import { benchWorksheetsHtml } from '../../src/io/benchWorksheets.js';
-import { managerReportHtml, runsOutsideLimits, splitDecision } from '../../src/io/managerReport.js';
+import { labWorksheetsHtml } from '../../src/io/labWorksheets.js';
+import { managerReportHtml, runsOutsideLimits } from '../../src/io/managerReport.js';
 import { InputError } from '../../src/core/inputError.js';
 import { makeHostilePlanFixture, makePlanFixture, makeSchedule } from '../fixtures/plan/sprayDryerPlan.js';
 
@@ -29,11 +29,11 @@ function runPages(html: string): string[] {
   return html.split('<section class="run-page"').slice(1);
 }
 
-describe('bench worksheets', () => {
+describe('lab worksheets', () => {
   it('has one page block per scheduled run, in execution order, each with the caution', async () => {
     const plan = makePlanFixture();
     const schedule = makeSchedule();
-    const html = await benchWorksheetsHtml(plan, schedule);
+    const html = await labWorksheetsHtml(plan, schedule);
     const pages = runPages(html);
     expect(pages).toHaveLength(schedule.order.length);
     pages.forEach((page, index) => {
@@ -58,7 +58,7 @@ describe('bench worksheets', () => {
 
   it('prints each run’s set-points with units, the fixed settings and a field per response', async () => {
     const plan = makePlanFixture();
-    const html = await benchWorksheetsHtml(plan, makeSchedule());
+    const html = await labWorksheetsHtml(plan, makeSchedule());
     // Run 1 is point C1: 180 °C, 37.5 % w/w, 12.0 kg/h; air flow fixed at 400 m³/h.
     const first = runPages(html)[0];
     expect(first).toMatch(/<td class="value">180<\/td>\s*<td class="unit">°C<\/td>/);
@@ -69,14 +69,55 @@ describe('bench worksheets', () => {
     expect(first).toContain('Set Feed rate to 12.0 kg/h.');
     expect(first).toContain('hard to change');
     // Run 2 (F03: 160 °C) follows C1 (180 °C) on the same day: the temperature changes.
-    expect(runPages(html)[1]).toContain('CHANGE from previous run');
+    // The change says from what to what, in the step list too.
+    expect(runPages(html)[1]).toContain('CHANGE from 180 to 160 °C');
+    expect(runPages(html)[1]).toContain('Change Inlet air temperature from 180 to 160 °C.');
+    expect(first).toContain('first run: set to 180 °C');
+    // A box for the value actually set, and every record field of the run sheet by name.
+    expect(first).toContain('As run, only if different');
+    expect(first).toMatch(/<td class="as-run"><\/td>/);
+    for (const field of ['Start time:', 'End time:', 'Material lot:', 'Operator (name, signature)', 'Checked by (name, signature)', 'Date:']) {
+      expect(first).toContain(field);
+    }
     // Model parameters are not bench settings.
     expect(html).not.toContain('Effective moisture diffusivity');
   });
 
+  it('shows a wait step with the settling time after a hard-to-change setting changes', async () => {
+    const plan = makePlanFixture();
+    const inlet = plan.study.factors.find((factor) => factor.id === 'inlet_temp')!;
+    inlet.settleMinutes = 40;
+    const pages = runPages(await labWorksheetsHtml(plan, makeSchedule()));
+    // Run 2 changes the inlet temperature: wait; a run that keeps it does not.
+    expect(pages[1]).toContain('Wait 40 min for Inlet air temperature to settle after the change.');
+    expect(pages[1]).toContain('<span class="tag">wait 40 min</span>');
+    const kept = pages.filter((page) => page.includes('same as run'));
+    for (const page of kept.filter((p) => !/CHANGE from [^<]* °C/.test(p))) expect(page).not.toContain('Wait 40 min');
+  });
+
+  it('shows each session’s bench hours and warns above sessions.hours', async () => {
+    const plan = makePlanFixture();
+    plan.study.costs = { ...(plan.study.costs ?? { currency: 'EUR', perRun: 100 }), hoursPerRun: 3 } as typeof plan.study.costs;
+    plan.study.sessions = { ...plan.study.sessions!, hours: 8 };
+    const html = await labWorksheetsHtml(plan, makeSchedule());
+    const first = runPages(html)[0];
+    expect(first).toMatch(/<p class="session">Day 1: runs 1–\d+, [\d.]+ h/);
+    expect(first).toMatch(/<p class="session-warning">⚠ Day 1 holds [\d.]+ h of bench work, more than the 8 h one day may hold \(sessions\.hours\)/);
+    plan.study.sessions = { ...plan.study.sessions!, hours: 100 };
+    expect(runPages(await labWorksheetsHtml(plan, makeSchedule()))[0]).not.toContain('session-warning');
+  });
+
+  it('puts the run order and its seed in the page footer', async () => {
+    const plan = makePlanFixture();
+    const schedule = makeSchedule();
+    const page = runPages(await labWorksheetsHtml(plan, schedule))[0];
+    const foot = page.slice(page.indexOf('class="page-foot"'));
+    expect(foot).toContain(String(schedule.seed));
+  });
+
   it('escapes hostile factor names and units', async () => {
     const plan = makeHostilePlanFixture();
-    const html = await benchWorksheetsHtml(plan, plan.schedule);
+    const html = await labWorksheetsHtml(plan, plan.schedule);
     expect(html).toContain(ESCAPED_HOSTILE);
     expect(html).toContain('&lt;b&gt;°C&lt;/b&gt;');
     expect(html).not.toContain('<b>°C</b>');
@@ -85,7 +126,7 @@ describe('bench worksheets', () => {
 
   it('falls back to plan order without a schedule and says on every page that it is not randomised', async () => {
     const plan = makePlanFixture({ schedule: undefined });
-    const html = await benchWorksheetsHtml(plan, undefined);
+    const html = await labWorksheetsHtml(plan, undefined);
     const pages = runPages(html);
     expect(pages).toHaveLength(plan.runs.length);
     pages.forEach((page, index) => {
@@ -97,7 +138,7 @@ describe('bench worksheets', () => {
   it('refuses a schedule that names a point the plan lacks', async () => {
     const schedule = makeSchedule();
     schedule.order[3] = { ...schedule.order[3], point: 'F99' };
-    await expect(benchWorksheetsHtml(makePlanFixture(), schedule)).rejects.toBeInstanceOf(InputError);
+    await expect(labWorksheetsHtml(makePlanFixture(), schedule)).rejects.toBeInstanceOf(InputError);
   });
 });
 
@@ -182,14 +223,6 @@ describe('manager report', () => {
     const row = html.slice(html.indexOf('data-comparator="box-behnken"'), html.indexOf('</tr>', html.indexOf('data-comparator="box-behnken"')));
     expect(row).toContain('<td class="num">3 of 15</td>');
     expect(html).toContain('such a plan cannot be run as listed');
-  });
-
-  it('prints the first two sentences of the decision in bold and the rest plainly', () => {
-    // "28.6 %" and "2σ" must not end a sentence; "Besides" starts the third.
-    const split = splitDecision(['The plan needs 25 runs: 10 fewer (28.6 %). It estimates all 13 terms. Besides, 8 of 35 runs break limits. A 2σ effect is found.']);
-    expect(split.headline).toBe('The plan needs 25 runs: 10 fewer (28.6 %). It estimates all 13 terms.');
-    expect(split.detail).toBe('Besides, 8 of 35 runs break limits. A 2σ effect is found.');
-    expect(splitDecision(['One sentence only.'])).toEqual({ headline: 'One sentence only.', detail: '' });
   });
 
   it('escapes a hostile factor name in the HTML and in the charts', async () => {
