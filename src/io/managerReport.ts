@@ -26,7 +26,7 @@ import { sweepSlice, thresholdSweepChartSvg } from './charts/thresholdSweepChart
 import { predictionVarianceChartSvg } from './charts/predictionVarianceChart.js';
 import { comparatorName } from './comparatorNames.js';
 import { decisionPage } from './managerDecision.js';
-import { overLimitWarning, sessionsSentence } from './sessionWording.js';
+import { overLimitSummary, sessionsSentence } from './sessionWording.js';
 import { PURPOSE_WORDS } from './runSheetTable.js';
 import {
   ABSENT,
@@ -209,7 +209,7 @@ export async function managerReportHtml(plan: PlanDocument, schedule: Schedule |
     const hours = sessionHours(plan, schedule);
     sessions = {
       text: sessionsSentence(hours, schedule.sessionLabel),
-      warnings: hours.sessions.map((load) => overLimitWarning(load, schedule.sessionLabel, hours)).filter((text): text is string => text !== null),
+      warnings: [overLimitSummary(hours, schedule.sessionLabel)].filter((text): text is string => text !== null),
     };
   }
 

@@ -34,3 +34,14 @@ export function sessionsSentence(hours: SessionHours, label: string): string {
   const count = hours.sessions.length === 1 ? `1 ${label.toLowerCase()}` : countOf(hours.sessions.length, label.toLowerCase(), plural);
   return `${count}: ${hours.sessions.map((load) => sessionLine(load, label)).join('; ')}.`;
 }
+
+/** One warning for every session over the limit, or null: "Day 1 (15 h) and Day 2 (12 h) hold more than …". */
+export function overLimitSummary(hours: SessionHours, label: string): string | null {
+  const over = hours.sessions.filter((load) => load.overLimit && load.hours !== null);
+  if (over.length === 0) return null;
+  if (over.length === 1) return overLimitWarning(over[0], label, hours);
+  const source = hours.limitFromStudy ? 'sessions.hours' : 'the default working day; set sessions.hours to change it';
+  const names = over.map((load) => `${label} ${load.session} (${hoursText(load.hours!)} h)`);
+  const list = `${names.slice(0, -1).join(', ')} and ${names[names.length - 1]}`;
+  return `${list} hold more bench work than the ${hoursText(hours.limit)} h one ${label.toLowerCase()} may hold (${source}): plan second shifts or split them`;
+}

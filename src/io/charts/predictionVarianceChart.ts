@@ -57,7 +57,7 @@ export async function predictionVarianceChartSvg(comparison: Comparison): Promis
       { name: 'name', type: 'ordinal', domain: ids, range: ids.map((id) => COMPARATOR_SHORT_NAME[id]) },
     ],
     axes: [
-      { orient: 'bottom', scale: 'x', title: 'Fraction of the design region', format: '.0%', tickCount: 5, grid: true },
+      { orient: 'bottom', scale: 'x', title: 'Fraction of the design region', format: '.0%', tickCount: 5, grid: true, labelPadding: 6 },
       {
         orient: 'left',
         scale: 'y',

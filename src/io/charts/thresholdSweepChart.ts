@@ -86,7 +86,7 @@ export async function thresholdSweepChartSvg(tiers: TierResult, axis: SweptThres
       ...seriesScales(TIERS, (tier) => SWEEP_SERIES_STYLE[tier]),
     ],
     axes: [
-      { orient: 'bottom', scale: 'x', title: `${axis === 'critical' ? 'Critical' : 'Moderate'} threshold on the aggregated total index`, tickCount: 6 },
+      { orient: 'bottom', scale: 'x', title: `${axis === 'critical' ? 'Critical' : 'Moderate'} threshold on the aggregated total index`, tickCount: 6, labelPadding: 6 },
       { orient: 'left', scale: 'y', title: 'Number of factors', tickMinStep: 1, format: 'd', grid: true },
     ],
     marks: [
