@@ -12,6 +12,11 @@
  *   Start time [start] · End time [end] · Material lot [lot] · Operator [operator] ·
  *   Checked by [checked_by] · Date [date] · Remarks [remarks].
  *
+ * `runSheetTable(plan, plan.schedule).columns` is the one column definition: the CSV and the
+ * workbook write it, and a reader finds each column by `key` and knows what to do with it by
+ * `group` (COLUMN_GROUP). In the workbook, keys sit in hidden row 6 above the headers; in the
+ * CSV, in the row after the first empty line.
+ *
  * Conventions fixed here:
  * - Headers carry the unit in square brackets, `Inlet air temperature [°C]`, as the other
  *   tables of the tool do (`withUnit` of `textTable.ts`); a unit of `-` or none is left out.
@@ -56,8 +61,35 @@ export type ColumnKind =
   | 'date'
   | 'remarks';
 
+/**
+ * What a reader does with a column: `identity` (run, session, whole plot, point, kind: must
+ * match the plan), `setPoint` (must match the plan), `asRun` (a deviation, blank when none),
+ * `response` (a result), `record` (bench record: times, lot, names, date, remarks).
+ */
+export type ColumnGroup = 'identity' | 'setPoint' | 'asRun' | 'response' | 'record';
+
+export const COLUMN_GROUP: Record<ColumnKind, ColumnGroup> = {
+  sequence: 'identity',
+  session: 'identity',
+  wholePlot: 'identity',
+  point: 'identity',
+  purpose: 'identity',
+  setPoint: 'setPoint',
+  asRun: 'asRun',
+  response: 'response',
+  start: 'record',
+  end: 'record',
+  lot: 'record',
+  operator: 'record',
+  checkedBy: 'record',
+  date: 'record',
+  remarks: 'record',
+};
+
 export interface RunSheetColumn {
   kind: ColumnKind;
+  /** COLUMN_GROUP of `kind`. */
+  group: ColumnGroup;
   /** Stable machine key, e.g. `set:inlet_temp` (see the module header). */
   key: string;
   header: string;
@@ -146,7 +178,7 @@ export function runSheetTable(plan: PlanDocument, schedule: Schedule): RunSheetT
   const wholePlots = plan.runs.some((run) => run.wholePlot !== undefined);
 
   const varied = plan.levels.filter((level) => level.varied);
-  const columns: RunSheetColumn[] = [
+  const columnList: Omit<RunSheetColumn, 'group'>[] = [
     { kind: 'sequence', key: COLUMN_KEY.sequence, header: 'Run no.' },
     { kind: 'session', key: COLUMN_KEY.session, header: schedule.sessionLabel },
     ...(wholePlots ? [{ kind: 'wholePlot' as const, key: COLUMN_KEY.wholePlot, header: 'Whole plot' }] : []),
@@ -176,6 +208,7 @@ export function runSheetTable(plan: PlanDocument, schedule: Schedule): RunSheetT
     { kind: 'date', key: COLUMN_KEY.date, header: 'Date' },
     { kind: 'remarks', key: COLUMN_KEY.remarks, header: 'Remarks' },
   ];
+  const columns: RunSheetColumn[] = columnList.map((column) => ({ ...column, group: COLUMN_GROUP[column.kind] }));
 
   const hardIds = varied.filter((level) => factorOf(level.id).hardToChange === true).map((level) => level.id);
   const sessions: number[] = [];

@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { parse } from 'csv-parse/sync';
 import { scheduleRuns } from '../../src/core/schedule/scheduleRuns.js';
 import { runSheetCsv } from '../../src/io/runSheetCsv.js';
+import { runSheetTable } from '../../src/io/runSheetTable.js';
 import { csvCell, neutraliseFormula } from '../../src/io/csvCell.js';
 import { InputError } from '../../src/core/inputError.js';
 import { sprayDryerPlan } from '../fixtures/plan/sprayDryerPlan.js';
@@ -91,6 +92,18 @@ describe('CSV run sheet layout', () => {
       expect(row.slice(10)).toEqual(['', '', '', '', '', '', '', '', '', '']);
       expect(['Model run', 'Centre repeat', 'Validation run']).toContain(row[3]);
     }
+  });
+
+  it('exports one column definition with a group per column, in the order the files write', () => {
+    const { plan, schedule, csv } = sheet();
+    const { columns } = runSheetTable(plan, schedule);
+    const { table } = split(csv);
+    expect(columns.map((column) => column.key)).toEqual(table[0]);
+    expect(columns.map((column) => column.header)).toEqual(table[1]);
+    const groups = columns.map((column) => `${column.group}:${column.id ?? column.kind}`);
+    expect(groups.slice(4, 8)).toEqual(['setPoint:inlet_temp', 'asRun:inlet_temp', 'setPoint:feed_rate', 'asRun:feed_rate']);
+    expect(columns.filter((column) => column.group === 'response').map((column) => column.id)).toEqual(['moisture', 'yield', 'd50']);
+    expect(columns.filter((column) => column.group === 'record').map((column) => column.key)).toEqual(['start', 'end', 'lot', 'operator', 'checked_by', 'date', 'remarks']);
   });
 
   it('is byte-identical for the same plan and seed and differs for another seed', () => {
