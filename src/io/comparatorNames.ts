@@ -20,3 +20,9 @@ export const COMPARATOR_SHORT_NAME: Record<ComparatorId, string> = {
 export function comparatorName(id: string): string {
   return (COMPARATOR_SHORT_NAME as Record<string, string>)[id] ?? id;
 }
+
+/** The short name inside a sentence: lower case, except names after people (Box–Behnken, Plackett–Burman). */
+export function comparatorNameInSentence(id: string): string {
+  const name = comparatorName(id);
+  return id === 'box-behnken' || id === 'plackett-burman' ? name : name.charAt(0).toLowerCase() + name.slice(1);
+}

@@ -16,7 +16,7 @@ import type { PlanDocument } from '../core/plan/planDocument.js';
 import { decisionFacts, type DecisionFacts, type MainRisk, type PlanFigures } from '../core/compare/decisionFacts.js';
 import type { FactorPrecision, InteractionPrecision } from '../core/plan/precisionBlock.js';
 import { wordList } from '../core/wordList.js';
-import { comparatorName } from './comparatorNames.js';
+import { comparatorName, comparatorNameInSentence } from './comparatorNames.js';
 import { ABSENT, countOf, countText, hoursText, moneyText, noiseUnitsText, powerText } from './numberText.js';
 import { termPhrase, termsPhrase } from './termWording.js';
 
@@ -187,7 +187,7 @@ function againstSentence(facts: DecisionFacts, factorIds: string[], nameOf: (id:
       : conventional.offLimitsRuns > 0
         ? `, ${countOf(conventional.offLimitsRuns, 'run')} of which break the constraints or equipment limits`
         : '';
-  const alternativeText = alternative ? `; the best classical alternative that can, the ${comparatorName(alternative.id)} plan, needs ${countOf(alternative.runs, 'run')}` : '';
+  const alternativeText = alternative ? `; the best classical alternative that can, the ${comparatorNameInSentence(alternative.id)} plan, needs ${countOf(alternative.runs, 'run')}` : '';
   return `${estimates} with ${comparative} than the conventional plan${conventionalCan}${alternativeText}.`;
 }
 
