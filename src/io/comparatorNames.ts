@@ -1,20 +1,10 @@
 /**
  * Short names of the comparison's plans, for chart legends, the report's tables and the
- * workbook: the one home for them (each row's `label` carries the full description).
+ * workbook, from their one home in core (comparatorNames.ts); sentence forms are worded here.
  */
-import type { ComparatorId } from '../core/compare/comparisonTypes.js';
+import { COMPARATOR_SHORT_NAME } from '../core/compare/comparatorNames.js';
 
-export const COMPARATOR_SHORT_NAME: Record<ComparatorId, string> = {
-  proposed: 'Proposed plan',
-  conventional: 'Conventional plan',
-  'full-factorial': 'Full factorial',
-  fractional: 'Fractional factorial',
-  'plackett-burman': 'Plackett–Burman',
-  'full-grid': 'Full grid of levels',
-  'ccd-face': 'Central composite (face-centred)',
-  'ccd-rotatable': 'Central composite (rotatable)',
-  'box-behnken': 'Box–Behnken',
-};
+export { COMPARATOR_SHORT_NAME };
 
 /** The short name of a plan id, or the id itself for one this table does not know. */
 export function comparatorName(id: string): string {

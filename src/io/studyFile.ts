@@ -88,12 +88,10 @@ const factorSchema = z.strictObject({
     .union([z.number().int().min(2), z.array(z.number()).min(2)], {
       error: 'must be a level count (a whole number ≥ 2) or a list of at least 2 level values',
     })
-    .optional(),
-  hardToChange: z.boolean().optional(),
-  settleMinutes: z.number().min(0).max(1440).optional(),
     .optional()
     .describe('a level count, or the level values, instead of the count the tier gives'),
   hardToChange: z.boolean().optional().describe('true when changing the setting is slow or costly: runs sharing it are kept together'),
+  settleMinutes: z.number().min(0).max(1440).optional().describe('minutes a hard-to-change factor needs to settle after a change (0–1440)'),
 });
 
 const responseSchema = z.strictObject({
@@ -145,15 +143,11 @@ const designSchema = z
   })
   .describe('the design search');
 
-const sessionsSchema = z.strictObject({
-  maxRuns: z.number().int().min(1),
-  label: z.string().min(1).optional(),
-  hours: z.number().positive().max(24).optional(),
-});
 const sessionsSchema = z
   .strictObject({
     maxRuns: z.number().int().min(1).describe('most runs in one session (day, shift or batch)'),
     label: z.string().min(1).optional().describe('what a session is called on the run sheet (default Session)'),
+    hours: z.number().positive().max(24).optional().describe('bench hours one session may hold (default 8, a working day); sessions above it are warned'),
   })
   .describe('how the runs are split into sessions');
 

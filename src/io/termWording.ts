@@ -7,7 +7,7 @@
  * else by their ids; lists are grouped by kind ("the curvature of A and B and the interaction
  * of A and C") so a long list stays readable.
  */
-import { parseTerm } from '../core/design/termSyntax.js';
+import { parseTerm } from '../core/model/termSyntax.js';
 import { wordList } from '../core/wordList.js';
 
 export type TermKind = 'main' | 'squared' | 'cubic' | 'power' | 'interaction';
