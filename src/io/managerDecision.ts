@@ -13,8 +13,8 @@
  * the conventional plan); plans are named by their short names (comparatorNames.ts).
  */
 import type { PlanDocument } from '../core/plan/planDocument.js';
-import { decisionFacts, type DecisionFacts, type MainRisk, type PlanFigures } from '../core/compare/decisionFacts.js';
-import type { FactorPrecision, InteractionPrecision } from '../core/plan/precisionBlock.js';
+import { decisionFacts, type DecisionFacts, type MainRisk, type PlanFigures } from '../core/plan/decisionFacts.js';
+import type { FactorPrecision, InteractionPrecision } from '../core/compare/precisionBlock.js';
 import { wordList } from '../core/wordList.js';
 import { comparatorName, comparatorNameInSentence } from './comparatorNames.js';
 import { ABSENT, countOf, countText, hoursText, moneyText, noiseUnitsText, powerText } from './numberText.js';

@@ -9,7 +9,7 @@ import type { TierResult } from '../sensitivity/tierTypes.js';
 import type { FactorLevels, PlannedRun } from '../design/designTypes.js';
 import type { Comparison } from '../compare/comparisonTypes.js';
 import type { Schedule } from '../schedule/scheduleTypes.js';
-import type { PrecisionBlock } from './precisionBlock.js';
+import type { PrecisionBlock } from '../compare/precisionBlock.js';
 
 export interface PlanModel {
   /** Always true: the intercept is implied by the term syntax. */

@@ -22,7 +22,6 @@ import { uniformInt } from 'pure-rand/distribution/uniformInt';
 import { InputError } from '../inputError.js';
 import type { Factor } from '../study.js';
 import { toEngineering } from './codedUnits.js';
-import { settingStep } from '../design/levels.js';
 import { gridPoints } from './gridPoints.js';
 import { compileConstraint, constraintHolds } from './constraintLanguage.js';
 import { createRandom } from '../random.js';
@@ -104,7 +103,7 @@ export function buildCandidateRegion(
       id: l.id,
       low: f.low,
       high: f.high,
-      precision: settingStep(f),
+      precision: f.precision,
       values: order.map((i) => l.values[i]),
       coded: order.map((i) => l.coded[i]),
     };

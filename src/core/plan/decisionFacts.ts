@@ -24,12 +24,12 @@
  *   (the session then moves with their setting); otherwise, effects outside the model form.
  */
 import { DEFAULT_SESSION_HOURS, type Study } from '../study.js';
-import type { PlanDocument } from '../plan/planDocument.js';
-import type { FactorPrecision, InteractionPrecision, PrecisionBlock } from '../plan/precisionBlock.js';
-import type { ComparatorId, ComparatorRow, Comparison } from './comparisonTypes.js';
-import { campaignCost } from './campaignCost.js';
+import type { PlanDocument } from './planDocument.js';
+import type { FactorPrecision, InteractionPrecision, PrecisionBlock } from '../compare/precisionBlock.js';
+import type { ComparatorId, ComparatorRow, Comparison } from '../compare/comparisonTypes.js';
+import { campaignCost } from '../compare/campaignCost.js';
 import { sessionCountFor } from '../schedule/sessionPlan.js';
-import { GOOD_POWER } from './verdict.js';
+import { GOOD_POWER } from '../compare/verdict.js';
 
 export interface PlanFigures {
   id: ComparatorId;
