@@ -10,7 +10,8 @@ import type { PlanDocument } from '../core/plan/planDocument.js';
 import type { ComparatorRow, Comparison } from '../core/compare/comparisonTypes.js';
 import { comparatorTableName, type ComparatorNaming } from '../core/compare/comparatorNames.js';
 import { counted } from '../core/countedNoun.js';
-import { displayWidth, formatNumber, renderTable, type TextColumn } from '../io/textTable.js';
+import { displayWidth, renderTable, type TextColumn } from '../io/textTable.js';
+import { fixedText, significantText } from '../io/numberText.js';
 
 /** Width the prose is wrapped to (the tables are about as wide). */
 const TEXT_WIDTH = 100;
@@ -45,7 +46,7 @@ export function compareSummary(comparison: Comparison, plan: PlanDocument): stri
       fixed(row.relativeInformationPerRun, 2),
       fixed(row.relativeInformationTotal, 2),
       row.averagePredictionVariance,
-      fixed(row.minPower === null ? null : 100 * row.minPower, 1),
+      fixed(row.minPower === null ? null : 100 * row.minPower, 0),
     ]),
     { title: `What each plan can estimate: the same ${counted(comparison.modelTerms.length, 'model term')} + intercept (p = ${comparison.p}), coded units` },
   );
@@ -88,13 +89,13 @@ export function compareSummary(comparison: Comparison, plan: PlanDocument): stri
   if (proposed?.terms && proposed.terms.length > 0) {
     const termTable = renderTable(
       [{ header: 'Term' }, { header: 'Std error', unit: 'σ', align: 'right' }, { header: 'VIF', align: 'right' }, { header: 'Power', unit: '%', align: 'right' }],
-      proposed.terms.map((term) => [term.term === '1' ? '1 (intercept)' : term.term, fixed(term.standardError, 3), fixed(term.vif, 1), fixed(term.power === null ? null : 100 * term.power, 1)]),
+      proposed.terms.map((term) => [term.term === '1' ? '1 (intercept)' : term.term, fixed(term.standardError, 3), fixed(term.vif, 1), fixed(term.power === null ? null : 100 * term.power, 0)]),
       { title: `The proposed plan term by term (power for an effect of ${comparison.delta}σ, α = ${comparison.alpha})` },
     );
     lines.push(termTable.replace(/\n+$/, ''));
     const detail = [
       residualText(proposed, comparison.p),
-      proposed.aCriterion != null ? `A-criterion ${formatNumber(proposed.aCriterion)} σ² (average coefficient variance)` : null,
+      proposed.aCriterion != null ? `A-criterion ${significantText(proposed.aCriterion)} σ² (average coefficient variance)` : null,
       proposed.gEfficiency != null
         ? `G-efficiency ${fixed(proposed.gEfficiency, 1)} % (the floor p/N of the scaled prediction variance against its worst value, ${proposed.gEfficiencyBasis ?? 'over the region'})`
         : null,
@@ -155,7 +156,7 @@ function aliasText(row: ComparatorRow): string {
       if (alias.aliasedWith.length === 0) return `${alias.term} (constant over the plan)`;
       const partners = alias.aliasedWith
         .slice(0, MAX_PARTNERS)
-        .map((partner) => (Math.abs(partner.coefficient - 1) < 1e-9 ? partner.term : `${formatNumber(partner.coefficient)}·${partner.term}`));
+        .map((partner) => (Math.abs(partner.coefficient - 1) < 1e-9 ? partner.term : `${significantText(partner.coefficient)}·${partner.term}`));
       const more = alias.aliasedWith.length > MAX_PARTNERS ? ` and ${alias.aliasedWith.length - MAX_PARTNERS} more` : '';
       return `${alias.term} with ${partners.join(', ')}${more}`;
     })
@@ -166,7 +167,7 @@ function savedText(value: number | null, percent: number | null, format: (value:
   if (value === null) return null;
   const sign = value < 0 ? '−' : '';
   const amount = `${sign}${format(Math.abs(value))}`;
-  return percent === null ? amount : `${amount} (${percent < 0 ? '−' : ''}${Math.abs(percent).toFixed(1)} %)`;
+  return percent === null ? amount : `${amount} (${percent < 0 ? '−' : ''}${fixedText(Math.abs(percent), 0)} %)`;
 }
 
 function fixed(value: number | null | undefined, decimals: number): string | null {

@@ -102,18 +102,18 @@ async function writePlanFiles(dir: string, plan: PlanDocument, force: boolean): 
   if (!schedule) throw new Error('plan has no run order');
   // Loaded here, not at start-up: the workbook and chart libraries take a second to load
   // and `tierplan tiers` or `plan --json` never need them.
-  const [{ writeOutputSet }, { runSheetCsv }, { runSheetWorkbook }, { benchWorksheetsHtml }, { managerReportHtml }] = await Promise.all([
+  const [{ writeOutputSet }, { runSheetCsv }, { planWorkbook }, { labWorksheetsHtml }, { managerReportHtml }] = await Promise.all([
     import('../io/outputSet.js'),
     import('../io/runSheetCsv.js'),
-    import('../io/runSheetWorkbook.js'),
-    import('../io/benchWorksheets.js'),
+    import('../io/workbook/planWorkbook.js'),
+    import('../io/labWorksheets.js'),
     import('../io/managerReport.js'),
   ]);
   const files = [
     { name: 'plan.json', content: planJson(plan) },
-    { name: 'runsheet.xlsx', content: await runSheetWorkbook(plan, schedule) },
+    { name: 'runsheet.xlsx', content: await planWorkbook(plan, schedule) },
     { name: 'runsheet.csv', content: runSheetCsv(plan, schedule) },
-    { name: 'worksheets.html', content: await benchWorksheetsHtml(plan, schedule) },
+    { name: 'worksheets.html', content: await labWorksheetsHtml(plan, schedule) },
     { name: 'report.html', content: await managerReportHtml(plan, schedule) },
   ];
   return writeOutputSet(resolve(dir), files, { planId: plan.planId, force });

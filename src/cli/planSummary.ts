@@ -4,7 +4,8 @@
  */
 import type { PlanDocument } from '../core/plan/planDocument.js';
 import { counted } from '../core/countedNoun.js';
-import { formatNumber, renderTable } from '../io/textTable.js';
+import { renderTable } from '../io/textTable.js';
+import { efficiencyText, indexText, settingText, varianceText } from '../io/numberText.js';
 
 export function planSummary(plan: PlanDocument): string {
   const lines: string[] = [];
@@ -14,13 +15,16 @@ export function planSummary(plan: PlanDocument): string {
   lines.push('');
 
   const tierOf = new Map(plan.tiers.factors.map((factor) => [factor.id, factor]));
+  const factorOf = new Map(plan.study.factors.map((factor) => [factor.id, factor]));
   lines.push(
     renderTable(
       [{ header: 'Factor' }, { header: 'Tier' }, { header: 'Total index', align: 'right' }, { header: 'Settings' }, { header: 'Unit' }],
       plan.levels.map((level) => {
         const tier = tierOf.get(level.id);
-        const settings = level.varied ? level.values.map(settingText).join(', ') : `fixed at ${settingText(level.fixedAt ?? NaN)}`;
-        return [level.id, `${level.tier}${tier?.borderline ? ' (borderline)' : ''}`, tier ? formatNumber(tier.decidedOn, 3) : null, settings, level.unit];
+        const factor = factorOf.get(level.id) ?? { low: 0, high: 1 };
+        const setting = (value: number) => settingText(value, factor);
+        const settings = level.varied ? level.values.map(setting).join(', ') : `fixed at ${level.fixedAt === null ? '–' : setting(level.fixedAt)}`;
+        return [level.id, `${level.tier}${tier?.borderline ? ' (borderline)' : ''}`, tier ? indexText(tier.decidedOn) : null, settings, level.unit];
       }),
       { title: 'Operating factors' },
     ),
@@ -43,13 +47,13 @@ export function planSummary(plan: PlanDocument): string {
     `Runs: ${metrics.N} fitting + ${counted(centre, 'centre replicate')} + ${holdout} holdout (validation only, not used for fitting) = ${plan.runs.length} ` +
       `(${metrics.runsNote})`,
   );
-  lines.push(`D-efficiency, textbook form 100·|X'X|^(1/p)/N in coded units: ${formatNumber(metrics.dEfficiency, 3)} %`);
+  lines.push(`D-efficiency, textbook form 100·|X'X|^(1/p)/N in coded units: ${efficiencyText(metrics.dEfficiency)}`);
   lines.push(
     metrics.boundEfficiency === null
       ? `Efficiency relative to the continuous optimum: not computed — ${metrics.boundNote}`
-      : `Efficiency against the continuous optimum: ${formatNumber(metrics.boundEfficiency, 4)} %, ${metrics.boundNote}`,
+      : `Efficiency against the continuous optimum: ${efficiencyText(metrics.boundEfficiency)}, ${metrics.boundNote}`,
   );
-  lines.push(`Average prediction variance over the region (I-criterion): ${formatNumber(metrics.iCriterion, 3)} σ²`);
+  lines.push(`Average prediction variance over the region (I-criterion): ${varianceText(metrics.iCriterion)} σ²`);
   if (plan.schedule) lines.push(plan.schedule.note);
 
   const comparison = plan.comparison;
@@ -65,10 +69,3 @@ export function planSummary(plan: PlanDocument): string {
   return `${lines.join('\n')}\n`;
 }
 
-/**
- * A setting as the operator will dial it: levels are already rounded to the factor's
- * precision, so print them in full (six significant figures, no padding zeros: 9.5, not 9.50).
- */
-function settingText(value: number): string {
-  return String(Number(value.toPrecision(6)));
-}

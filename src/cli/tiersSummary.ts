@@ -5,16 +5,15 @@
  */
 import type { Study } from '../core/study.js';
 import type { FactorTier, SweepRow, TierResult } from '../core/sensitivity/tierTypes.js';
-import { formatNumber, renderTable, type TextCell } from '../io/textTable.js';
+import { renderTable, type TextCell } from '../io/textTable.js';
+import { indexText, significantText } from '../io/numberText.js';
 import type { Painter } from '../io/terminalStyle.js';
 import { counted } from '../core/countedNoun.js';
 
 const BORDERLINE_MARK = '*';
 
-/** A cut-off as the user would write it: 0.05, 0.3 (no padding zeros). */
-function cutoff(value: number): string {
-  return String(Number(value.toFixed(6)));
-}
+/** A cut-off, printed as every other index and threshold is (numberText.ts `indexText`). */
+const cutoff = indexText;
 
 const AGGREGATE_WORDS: Record<Study['policy']['aggregate'], string> = {
   mean: 'mean over the responses',
@@ -32,7 +31,7 @@ export function tiersSummary(study: Pick<Study, 'title' | 'responses' | 'interac
   // Under `weighted` the reader needs the weights to redo the sum by hand.
   const responseNote =
     policy.aggregate === 'weighted'
-      ? `weights ${study.responses.map((response) => `${response.id} ${formatNumber(response.weight)}`).join(', ')}`
+      ? `weights ${study.responses.map((response) => `${response.id} ${significantText(response.weight)}`).join(', ')}`
       : counted(responseCount, 'response');
   out.push(
     `Total Sobol' index, ${AGGREGATE_WORDS[policy.aggregate]} (${responseNote}); ` +
@@ -48,13 +47,13 @@ export function tiersSummary(study: Pick<Study, 'title' | 'responses' | 'interac
     { header: 'Factor' },
     { header: 'Name' },
     { header: 'Unit' },
-    { header: 'Total' },
+    { header: 'Total', align: 'right' as const },
     { header: 'Interval' },
-    { header: 'First' },
-    { header: 'Interaction' },
-    ...(decidedOnUpper ? [{ header: 'Decided on' }] : []),
+    { header: 'First', align: 'right' as const },
+    { header: 'Interaction', align: 'right' as const },
+    ...(decidedOnUpper ? [{ header: 'Decided on', align: 'right' as const }] : []),
     { header: 'Tier' },
-    { header: 'Margin' },
+    { header: 'Margin', align: 'right' as const },
   ];
   for (const section of sections) {
     if (section.factors.length === 0) continue;
@@ -62,15 +61,15 @@ export function tiersSummary(study: Pick<Study, 'title' | 'responses' | 'interac
       factor.id,
       factor.name,
       factor.unit,
-      factor.aggregatedTotal,
+      indexText(factor.aggregatedTotal),
       factor.aggregatedTotalLow !== null && factor.aggregatedTotalHigh !== null
-        ? `${formatNumber(factor.aggregatedTotalLow)} – ${formatNumber(factor.aggregatedTotalHigh)}`
+        ? `${indexText(factor.aggregatedTotalLow)} – ${indexText(factor.aggregatedTotalHigh)}`
         : null,
-      factor.aggregatedFirst,
-      factor.interactionShare,
-      ...(decidedOnUpper ? [factor.decidedOn] : []),
+      indexText(factor.aggregatedFirst),
+      indexText(factor.interactionShare),
+      ...(decidedOnUpper ? [indexText(factor.decidedOn)] : []),
       paint.tier(factor.tier) + (factor.borderline ? ` ${BORDERLINE_MARK}` : ''),
-      factor.margin ?? null,
+      factor.margin === undefined || factor.margin === null ? null : indexText(factor.margin),
     ]);
     out.push('', renderTable(columns, rows, { title: paint.bold(`${section.label} (${section.factors.length})`) }).trimEnd());
   }
@@ -97,8 +96,8 @@ export function tiersSummary(study: Pick<Study, 'title' | 'responses' | 'interac
   } else {
     out.push(
       renderTable(
-        [{ header: 'Pair' }, { header: 'Index' }, { header: 'Reached in' }],
-        result.interactionPairs.map((pair) => [`${pair.factorA} × ${pair.factorB}`, pair.index, pair.responses.join(', ')]),
+        [{ header: 'Pair' }, { header: 'Index', align: 'right' }, { header: 'Reached in' }],
+        result.interactionPairs.map((pair) => [`${pair.factorA} × ${pair.factorB}`, indexText(pair.index), pair.responses.join(', ')]),
       ).trimEnd(),
     );
   }
@@ -111,11 +110,11 @@ export function tiersSummary(study: Pick<Study, 'title' | 'responses' | 'interac
   } else {
     out.push(
       renderTable(
-        [{ header: 'Parameter' }, { header: 'Name' }, { header: 'Total' }, { header: 'Tier' }, { header: 'Action' }],
+        [{ header: 'Parameter' }, { header: 'Name' }, { header: 'Total', align: 'right' }, { header: 'Tier' }, { header: 'Action' }],
         calibration.entries.map((entry) => [
           entry.id,
           entry.name,
-          entry.aggregatedTotal,
+          indexText(entry.aggregatedTotal),
           paint.tier(entry.tier) + (borderline.has(entry.id) ? ` ${BORDERLINE_MARK}` : ''),
           entry.action === 'estimate' ? 'estimate precisely (lab fit or dedicated test)' : 'take a literature or nominal value',
         ]),

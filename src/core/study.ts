@@ -35,6 +35,11 @@ export interface Factor {
   /** A level count, or explicit level values in engineering units. Overrides the tier default. */
   levels?: number | number[];
   hardToChange?: boolean;
+  /**
+   * Minutes a hard-to-change factor needs to settle after its setting changes, shown on the
+   * worksheets as a wait step (0 to 1440, optional; no effect unless `hardToChange`).
+   */
+  settleMinutes?: number;
 }
 
 export interface Response {
@@ -115,7 +120,16 @@ export interface SessionSettings {
   maxRuns: number;
   /** What a session is called on the run sheet, e.g. "Day". */
   label: string;
+  /**
+   * Bench hours one session may hold (a working day or shift); the worksheets and the run sheet
+   * warn for a session whose hours exceed it. The study reader fills in DEFAULT_SESSION_HOURS;
+   * optional only so that plans written before the key existed still read.
+   */
+  hours?: number;
 }
+
+/** A working day at the bench, in hours, when `sessions.hours` is not given (common practice). */
+export const DEFAULT_SESSION_HOURS = 8;
 
 export interface CostSettings {
   currency: string;

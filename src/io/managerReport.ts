@@ -1,107 +1,47 @@
 /**
- * The manager report: one self-contained HTML file (about one printed page plus an appendix)
- * that makes the case for the proposed plan.
- *
- * Content, in order: the decision (runs, cost and bench time saved against the conventional
- * plan, and what the smaller plan still estimates); the indices per factor with both tier
- * thresholds; the threshold sweep; the comparison table, where every efficiency names its
- * reference; the fraction-of-design-space curves (Zahran, Anderson-Cook & Myers 2003); the
- * model parameters to estimate versus fix; assumptions and caveats. The appendix holds the
- * tier table, levels, model terms, run order and plan metrics.
+ * The manager report: one self-contained HTML file. Page 1 is the decision (managerDecision.ts,
+ * the same words as the workbook's decision sheet): title, the decision in two sentences, runs,
+ * cost, bench hours and sessions against the conventional and the best classical plan, the
+ * sessions with their hours, what the campaign will detect and how surely, the main risk, what
+ * a failed validation costs, and the approval block. Page 2 holds the evidence in plain words:
+ * the indices per factor with both tier thresholds, the threshold sweep, the comparison table,
+ * the fraction-of-design-space curves (Zahran, Anderson-Cook & Myers 2003) and the assumptions.
+ * The appendix, on pages of its own, holds the method details once: the tier table, levels and
+ * model terms, the plan figures with their formulas and the notes from planning, the run order
+ * (with sessions and whole plots) and a verdict per plan.
  *
  * Every figure shown is taken from the plan document (computed by the core stages); this
- * module only formats. User text goes through handlebars escaping; charts are vega SVG
- * (see src/io/charts/). Wording lives in templates/managerReport.hbs and in the sentences
- * built below.
+ * module only words and formats, with numberText.ts. User text goes through handlebars
+ * escaping; charts are vega SVG (see src/io/charts/). Wording lives in
+ * templates/managerReport.hbs, managerDecision.ts and the sentences built below.
  */
 import type { PlanDocument } from '../core/plan/planDocument.js';
 import type { Schedule } from '../core/schedule/scheduleTypes.js';
-import type { ComparatorRow, Comparison } from '../core/compare/comparisonTypes.js';
+import type { ComparatorRow } from '../core/compare/comparisonTypes.js';
 import type { SweepRow, TierResult } from '../core/sensitivity/tierTypes.js';
+import { sessionHours } from '../core/schedule/sessionHours.js';
 import { renderTemplate } from './templateRendering.js';
 import { indexChartSvg } from './charts/indexChart.js';
 import { sweepSlice, thresholdSweepChartSvg } from './charts/thresholdSweepChart.js';
-import { COMPARATOR_SHORT_NAME, predictionVarianceChartSvg } from './charts/predictionVarianceChart.js';
-import { formatSetting } from './benchWorksheets.js';
+import { predictionVarianceChartSvg } from './charts/predictionVarianceChart.js';
+import { comparatorName } from './comparatorNames.js';
+import { decisionPage } from './managerDecision.js';
+import { overLimitSummary, sessionsSentence } from './sessionWording.js';
 import { PURPOSE_WORDS } from './runSheetTable.js';
-
-const DASH = '—';
-
-function fixed(value: number | null | undefined, digits: number): string {
-  return value === null || value === undefined || !Number.isFinite(value) ? DASH : value.toFixed(digits);
-}
-
-function grouped(value: number | null | undefined, digits = 0): string {
-  if (value === null || value === undefined || !Number.isFinite(value)) return DASH;
-  return value.toLocaleString('en-GB', { minimumFractionDigits: digits, maximumFractionDigits: digits });
-}
-
-function money(value: number | null | undefined, currency: string | null): string {
-  if (value === null || value === undefined) return DASH;
-  return currency ? `${currency} ${grouped(value)}` : grouped(value);
-}
-
-function plural(count: number, word: string): string {
-  return `${grouped(count)} ${word}${count === 1 ? '' : 's'}`;
-}
-
-interface DecisionView {
-  /** The decision in one or two sentences (bold), then the rest of the argument (plain). */
-  headline: string;
-  detail: string;
-  /** Proposed against conventional, figure by figure; null when either row is missing or unbuilt. */
-  figures: { measure: string; proposed: string; conventional: string; difference: string }[] | null;
-  conventionalLabel: string;
-}
-
-function difference(proposed: number | null, conventional: number | null, format: (value: number) => string): string {
-  if (proposed === null || conventional === null) return DASH;
-  const saved = conventional - proposed;
-  const percent = conventional === 0 ? '' : ` (${fixed((100 * saved) / conventional, 0)} %)`;
-  return saved >= 0 ? `${format(saved)} saved${percent}` : `${format(-saved)} extra${percent.replace('(-', '(+')}`;
-}
-
-/**
- * Splits a paragraph into the decision proper (its first two sentences) and the rest. A
- * sentence ends at a full stop followed by a space and a capital; decimals such as "28.6 %"
- * never match.
- */
-export function splitDecision(sentences: string[]): { headline: string; detail: string } {
-  const all = sentences.flatMap((text) => text.split(/(?<=\.)\s+(?=[A-Z])/));
-  return { headline: all.slice(0, 2).join(' '), detail: all.slice(2).join(' ') };
-}
-
-/** The decision: the comparison summary plus the proposed-versus-conventional figures. */
-function decisionView(plan: PlanDocument, comparison: Comparison | undefined): DecisionView {
-  if (!comparison) {
-    return {
-      ...splitDecision([
-        `The proposed plan has ${plural(plan.runs.length, 'run')} and estimates all ${plan.metrics.p} parameters of the target model.`,
-        'No comparison with conventional plans is stored in this plan, so this report claims no savings. Run the comparison stage to add one.',
-      ]),
-      figures: null,
-      conventionalLabel: '',
-    };
-  }
-  const currency = comparison.currency;
-  const proposed = comparison.comparators.find((row) => row.id === 'proposed');
-  const conventional = comparison.comparators.find((row) => row.id === 'conventional');
-  if (!proposed || !conventional || proposed.runs === null || conventional.runs === null) {
-    return { ...splitDecision([comparison.summary, 'No conventional plan could be built for this study, so no savings are shown.']), figures: null, conventionalLabel: '' };
-  }
-  const estimates = (row: ComparatorRow) =>
-    row.fitsModel ? `all ${comparison.p}` : `${comparison.p - row.missingTerms.length} of ${comparison.p}`;
-  return {
-    ...splitDecision([comparison.summary]),
-    conventionalLabel: conventional.label,
-    figures: [
-      { measure: 'Runs', proposed: grouped(proposed.runs), conventional: grouped(conventional.runs), difference: difference(proposed.runs, conventional.runs, (v) => grouped(v)) },
-      { measure: `Cost${currency ? ` (${currency})` : ''}`, proposed: grouped(proposed.cost), conventional: grouped(conventional.cost), difference: difference(proposed.cost, conventional.cost, (v) => grouped(v)) },
-      { measure: 'Bench hours', proposed: grouped(proposed.hours), conventional: grouped(conventional.hours), difference: difference(proposed.hours, conventional.hours, (v) => grouped(v)) },
-      { measure: 'Model parameters it can estimate', proposed: estimates(proposed), conventional: estimates(conventional), difference: '' },
-    ],
-  };
-}
+import {
+  ABSENT,
+  countOf,
+  countText,
+  efficiencyText,
+  hoursText,
+  indexText,
+  moneyText,
+  percentText,
+  powerText,
+  ratioText,
+  settingText,
+  varianceText,
+} from './numberText.js';
 
 interface ComparatorView {
   id: string;
@@ -110,7 +50,7 @@ interface ComparatorView {
   proposed: boolean;
   runs: string;
   fits: string;
-  /** Short form for the main table, e.g. "misses 2 terms". */
+  /** Short form for the main table, e.g. "2 missing". */
   missingShort: string;
   missing: string;
   dEfficiency: string;
@@ -118,6 +58,7 @@ interface ComparatorView {
   informationTotal: string;
   predictionVariance: string;
   minPower: string;
+  minPowerTerm: string;
   cost: string;
   hours: string;
   runsSaved: string;
@@ -132,37 +73,41 @@ interface ComparatorView {
  * alternative.
  */
 export function runsOutsideLimits(row: Pick<ComparatorRow, 'runs' | 'offLimitsRuns'>): string {
-  if (row.runs === null) return DASH;
-  return row.offLimitsRuns ? `${row.offLimitsRuns} of ${row.runs}` : 'none';
+  if (row.runs === null) return ABSENT;
+  return row.offLimitsRuns ? `${countText(row.offLimitsRuns)} of ${countText(row.runs)}` : 'none';
 }
 
-function comparatorView(row: ComparatorRow, currency: string | null): ComparatorView {
-  const fits = row.runs === null ? 'not built' : row.fitsModel === null ? DASH : row.fitsModel ? 'yes' : 'no';
-  const saved =
-    row.id === 'proposed' || row.runsSaved === null
-      ? DASH
-      : `${grouped(row.runsSaved)}${row.percentRunsSaved === null ? '' : ` (${fixed(row.percentRunsSaved, 0)} %)`}`;
+/** "10 (29 %)", "6 more (32 %)". */
+function savedText(row: ComparatorRow): string {
+  if (row.id === 'proposed' || row.runsSaved === null) return ABSENT;
+  const share = row.percentRunsSaved === null ? '' : ` (${percentText(Math.abs(row.percentRunsSaved))})`;
+  return row.runsSaved >= 0 ? `${countText(row.runsSaved)}${share}` : `${countText(-row.runsSaved)} more${share}`;
+}
+
+function comparatorView(row: ComparatorRow): ComparatorView {
+  const fits = row.runs === null ? 'not built' : row.fitsModel === null ? ABSENT : row.fitsModel ? 'yes' : 'no';
   let label = row.label;
   if (row.id === 'fractional' && row.resolution !== undefined) {
     label += ` · resolution ${row.resolution}${row.generators?.length ? `, generators ${row.generators.join(', ')}` : ''}`;
   }
   return {
     id: row.id,
-    name: COMPARATOR_SHORT_NAME[row.id] ?? row.id,
+    name: comparatorName(row.id),
     label,
     proposed: row.id === 'proposed',
-    runs: row.runs === null ? DASH : grouped(row.runs),
+    runs: row.runs === null ? ABSENT : countText(row.runs),
     fits,
-    missingShort: row.runs === null || row.missingTerms.length === 0 ? '' : `${row.missingTerms.length} missing`,
+    missingShort: row.runs === null || row.missingTerms.length === 0 ? '' : `${countText(row.missingTerms.length)} missing`,
     missing: row.runs === null ? (row.reason ?? '') : row.missingTerms.length ? `cannot estimate ${row.missingTerms.join(', ')}` : '',
-    dEfficiency: fixed(row.dEfficiency, 1),
-    informationPerRun: fixed(row.relativeInformationPerRun, 2),
-    informationTotal: fixed(row.relativeInformationTotal, 2),
-    predictionVariance: fixed(row.averagePredictionVariance, 3),
-    minPower: row.minPower === null ? DASH : `${fixed(row.minPower * 100, 0)} %${row.minPowerTerm ? ` (${row.minPowerTerm})` : ''}`,
-    cost: money(row.cost, currency),
-    hours: grouped(row.hours, 0),
-    runsSaved: saved,
+    dEfficiency: efficiencyText(row.dEfficiency),
+    informationPerRun: ratioText(row.relativeInformationPerRun),
+    informationTotal: ratioText(row.relativeInformationTotal),
+    predictionVariance: varianceText(row.averagePredictionVariance),
+    minPower: powerText(row.minPower),
+    minPowerTerm: row.minPower === null ? '' : (row.minPowerTerm ?? ''),
+    cost: moneyText(row.cost, null),
+    hours: hoursText(row.hours),
+    runsSaved: savedText(row),
     outsideLimits: row.id === 'proposed' ? 'none' : runsOutsideLimits(row),
     verdict: row.verdict,
   };
@@ -170,7 +115,7 @@ function comparatorView(row: ComparatorRow, currency: string | null): Comparator
 
 function sweepRows(tiers: TierResult, rows: SweepRow[] | null, axis: 'critical' | 'moderate') {
   return (rows ?? []).map((row) => ({
-    threshold: row[axis].toFixed(2),
+    threshold: indexText(row[axis]),
     critical: row.counts.critical,
     moderate: row.counts.moderate,
     negligible: row.counts.negligible,
@@ -186,13 +131,13 @@ function tierRows(tiers: TierResult) {
       unit: factor.unit,
       role: factor.role === 'model' ? 'model parameter' : 'operating setting',
       tier: factor.tier,
-      total: factor.aggregatedTotal.toFixed(3),
-      first: factor.aggregatedFirst.toFixed(3),
+      total: indexText(factor.aggregatedTotal),
+      first: indexText(factor.aggregatedFirst),
       interval:
         factor.aggregatedTotalLow !== null && factor.aggregatedTotalHigh !== null
-          ? `${factor.aggregatedTotalLow.toFixed(3)} to ${factor.aggregatedTotalHigh.toFixed(3)}`
-          : DASH,
-      interactionShare: factor.interactionShare.toFixed(3),
+          ? `${indexText(factor.aggregatedTotalLow)} to ${indexText(factor.aggregatedTotalHigh)}`
+          : ABSENT,
+      interactionShare: indexText(factor.interactionShare),
       borderline: factor.borderline,
     }));
 }
@@ -201,21 +146,28 @@ function runRows(plan: PlanDocument, schedule: Schedule | undefined) {
   const factorById = new Map(plan.study.factors.map((factor) => [factor.id, factor]));
   const varied = plan.levels.filter((level) => level.varied);
   const runByPoint = new Map(plan.runs.map((run) => [run.point, run]));
+  const wholePlots = plan.runs.some((run) => run.wholePlot !== undefined);
   const order = schedule
-    ? schedule.order.map((entry) => ({ sequence: String(entry.sequence), session: String(entry.session), point: entry.point }))
-    : plan.runs.map((run) => ({ sequence: DASH, session: DASH, point: run.point }));
+    ? schedule.order.map((entry) => ({ sequence: String(entry.sequence), session: entry.session, point: entry.point }))
+    : plan.runs.map((run) => ({ sequence: ABSENT, session: run.session ?? null, point: run.point }));
   return {
     sessionLabel: schedule?.sessionLabel ?? 'Session',
+    wholePlots,
     headers: varied.map((level) => ({ name: level.name, unit: level.unit })),
     rows: order.map((entry) => {
       const run = runByPoint.get(entry.point);
+      const session = run?.session ?? entry.session;
       return {
-        ...entry,
+        sequence: entry.sequence,
+        session: session === null ? ABSENT : String(session),
+        wholePlot: run?.wholePlot === undefined ? ABSENT : String(run.wholePlot),
+        point: entry.point,
         // The run sheet's own words, so manager and technician read the same kind of run.
-        purpose: run ? PURPOSE_WORDS[run.purpose] : DASH,
+        purpose: run ? PURPOSE_WORDS[run.purpose] : ABSENT,
         settings: varied.map((level) => {
           const value = run?.settings[level.id];
-          return value === undefined ? DASH : formatSetting(value, factorById.get(level.id)?.precision);
+          const factor = factorById.get(level.id);
+          return value === undefined || !factor ? ABSENT : settingText(value, factor);
         }),
       };
     }),
@@ -225,10 +177,10 @@ function runRows(plan: PlanDocument, schedule: Schedule | undefined) {
 const ASSUMPTIONS = [
   'The sensitivity indices come from a process model and carry its assumptions, input ranges and input distributions; a factor the model leaves out cannot appear here.',
   'The tier thresholds are common-practice starting points, not physical constants; the threshold sweep shows how the tiers move with them.',
-  'The plan assumes the model form in the appendix (the terms chosen from the tiers). Effects outside that form are not estimable from this plan; the holdout runs exist to catch them.',
+  'The plan assumes the model form in the appendix (the terms chosen from the tiers). Effects outside that form are not estimable from this plan; the validation runs exist to catch them.',
   'Negligible factors are held fixed at their nominal settings; conclusions hold at those settings only.',
-  'Every efficiency is relative to a stated reference: textbook D-efficiency to an ideal orthogonal plan of the same size, the bound efficiency to the best approximate plan on the same candidate points, information ratios to the proposed plan.',
-  'Costs and bench hours are the study file’s per-run figures multiplied out; they include no set-up, analysis or failed runs.',
+  'Every efficiency is relative to a stated reference: textbook D-efficiency to an ideal orthogonal plan of the same size, information to the proposed plan (appendix D).',
+  'Costs and bench hours are the study file’s per-run figures multiplied out, with the hard-to-change resets; they include no set-up, analysis or failed runs.',
   'Power figures assume independent, normally distributed run-to-run error of constant size.',
   'Every setting must be checked against the equipment’s rated limits and site procedures; the plan does not replace a hazard review.',
 ];
@@ -249,23 +201,31 @@ export async function managerReportHtml(plan: PlanDocument, schedule: Schedule |
   ]);
   const counts = { critical: 0, moderate: 0, negligible: 0 };
   for (const factor of plan.tiers.factors) counts[factor.tier] += 1;
-  const calibration = plan.tiers.calibration;
-  const fitRuns = plan.runs.filter((run) => run.purpose === 'fit').length;
   const centreRuns = plan.runs.filter((run) => run.purpose === 'centre').length;
-  const holdoutRuns = plan.runs.filter((run) => run.purpose === 'holdout').length;
+  const page = decisionPage(plan);
+
+  let sessions: { text: string; warnings: string[] } | null = null;
+  if (schedule) {
+    const hours = sessionHours(plan, schedule);
+    sessions = {
+      text: sessionsSentence(hours, schedule.sessionLabel),
+      warnings: [overLimitSummary(hours, schedule.sessionLabel)].filter((text): text is string => text !== null),
+    };
+  }
 
   return renderTemplate('managerReport', {
     title: plan.study.title,
+    heading: page.title,
     planId: plan.planId,
     createdDate: plan.createdAt.slice(0, 10),
     toolVersion: plan.tool.version,
-    decision: decisionView(plan, comparison),
-    planShape: `${plural(plan.runs.length, 'run')}: ${fitRuns} for fitting, ${centreRuns} replicate centre ${centreRuns === 1 ? 'point' : 'points'}, ${holdoutRuns} holdout check ${holdoutRuns === 1 ? 'run' : 'runs'}; ${plan.metrics.p} model parameters.`,
+    page,
+    sessions,
     policy: {
       aggregate: plan.tiers.policy.aggregate,
-      critical: plan.tiers.policy.critical.toFixed(2),
-      moderate: plan.tiers.policy.moderate.toFixed(2),
-      confidence: plan.tiers.policy.confidence === 'upper' ? 'the upper confidence bound' : 'the point estimate',
+      critical: indexText(plan.tiers.policy.critical),
+      moderate: indexText(plan.tiers.policy.moderate),
+      confidence: plan.tiers.policy.confidence === 'upper' ? 'the upper confidence bound' : 'the estimate',
     },
     tierCounts: counts,
     indexChart,
@@ -276,50 +236,49 @@ export async function managerReportHtml(plan: PlanDocument, schedule: Schedule |
     hasComparison: comparison !== undefined,
     comparison: comparison
       ? {
-          rows: comparison.comparators.map((row) => comparatorView(row, currency)),
+          rows: comparison.comparators.map(comparatorView),
           p: comparison.p,
-          delta: grouped(comparison.delta, 1),
-          alpha: grouped(comparison.alpha, 2),
+          delta: String(comparison.delta),
+          alpha: String(comparison.alpha),
           varianceMethod: comparison.predictionVarianceMethod,
-          currency: currency ?? 'cost units',
+          costHeading: currency ? `Cost, ${currency}` : 'Cost',
+          hasCosts: comparison.comparators.some((row) => row.cost !== null),
         }
       : null,
     fdsChart,
-    calibration: {
-      estimate: calibration.entries.filter((entry) => entry.action === 'estimate').map((entry) => ({ name: entry.name, tier: entry.tier, total: entry.aggregatedTotal.toFixed(2) })),
-      literature: calibration.entries.filter((entry) => entry.action === 'literature').map((entry) => ({ name: entry.name, tier: entry.tier, total: entry.aggregatedTotal.toFixed(2) })),
-    },
     assumptions: ASSUMPTIONS,
     warnings: plan.warnings,
     tierRows: tierRows(plan.tiers),
-    levels: plan.levels.map((level) => ({
-      name: level.name,
-      unit: level.unit,
-      tier: level.tier,
-      settings: level.varied
-        ? level.values.map((value) => formatSetting(value, plan.study.factors.find((factor) => factor.id === level.id)?.precision)).join(', ')
-        : `fixed at ${level.fixedAt === null ? DASH : formatSetting(level.fixedAt, plan.study.factors.find((factor) => factor.id === level.id)?.precision)}`,
-      reason: level.reason,
-    })),
+    levels: plan.levels.map((level) => {
+      const factor = plan.study.factors.find((candidate) => candidate.id === level.id);
+      const setting = (value: number) => (factor ? settingText(value, factor) : String(value));
+      return {
+        name: level.name,
+        unit: level.unit,
+        tier: level.tier,
+        settings: level.varied ? level.values.map(setting).join(', ') : `fixed at ${level.fixedAt === null ? ABSENT : setting(level.fixedAt)}`,
+        reason: level.reason,
+      };
+    }),
     modelTerms: plan.model.explained,
     interactionPairs: plan.tiers.interactionPairs.map((pair) => ({
       pair: `${pair.factorA} × ${pair.factorB}`,
-      index: pair.index.toFixed(3),
+      index: indexText(pair.index),
       responses: pair.responses.join(', '),
     })),
     runTable: runRows(plan, schedule),
     scheduleNote: schedule ? schedule.note : 'No run schedule is stored: runs are listed in plan order and are not randomised.',
     metrics: {
-      dEfficiency: fixed(plan.metrics.dEfficiency, 1),
-      boundEfficiency: fixed(plan.metrics.boundEfficiency, 1),
+      dEfficiency: efficiencyText(plan.metrics.dEfficiency),
+      boundEfficiency: efficiencyText(plan.metrics.boundEfficiency),
       boundNote: plan.metrics.boundNote,
-      iCriterion: fixed(plan.metrics.iCriterion, 3),
+      iCriterion: varianceText(plan.metrics.iCriterion),
       criterion: plan.metrics.criterion === 'D' ? 'D-optimal' : 'I-optimal',
       seed: String(plan.metrics.seed),
       starts: String(plan.metrics.starts),
       runsNote: plan.metrics.runsNote,
       fitRuns: String(plan.metrics.N),
-      centreRuns: String(centreRuns),
+      centreRuns: countOf(centreRuns, 'centre repeat'),
     },
   });
 }

@@ -13,7 +13,11 @@
  *   distance) — a misspelt optional key silently ignored would change the plan unnoticed.
  * - Every error is one line naming the study file and the key path (`factors[2].low`).
  * - `policy`, `design`, `design.levels` may be partial; they merge over DEFAULT_POLICY and
- *   DEFAULT_DESIGN. `responses[].weight` defaults to 1, `sessions.label` to "Session".
+ *   DEFAULT_DESIGN. `responses[].weight` defaults to 1, `sessions.label` to "Session",
+ *   `sessions.hours` to DEFAULT_SESSION_HOURS (8, a working day).
+ * - `factors[].settleMinutes` (0–1440) is kept on any operating factor but only acts on a
+ *   hard-to-change one; elsewhere it draws a warning, as keys with no effect on a model
+ *   parameter do.
  * - Table paths are relative to the study file's folder; `Study.source` keeps them as
  *   written, messages show them joined to the study file's folder as the user gave it.
  * - Ids are identifiers (letter, then letters, digits or `_`) because constraints and model
@@ -30,6 +34,7 @@ import {
   CRITERIA,
   DEFAULT_DESIGN,
   DEFAULT_POLICY,
+  DEFAULT_SESSION_HOURS,
   MODEL_PRESETS,
   POLICY_CUT_OFFS,
   cutOffsInOrder,
@@ -106,6 +111,7 @@ const factorSchema = z.strictObject({
     .optional()
     .describe('a level count, or the level values, instead of the count the tier gives'),
   hardToChange: z.boolean().optional().describe('true when changing the setting is slow or costly: runs sharing it are kept together'),
+  settleMinutes: z.number().min(0).max(1440).optional().describe('minutes a hard-to-change factor needs to settle after a change (0–1440)'),
 });
 
 const responseSchema = z.strictObject({
@@ -166,6 +172,7 @@ const sessionsSchema = z
   .strictObject({
     maxRuns: capped(z.number().int().min(1), 'sessionRuns').describe('most runs in one session (day, shift or batch)'),
     label: text().min(1).optional().describe('what a session is called on the run sheet (default Session)'),
+    hours: z.number().positive().max(24).optional().describe('bench hours one session may hold (default 8, a working day); sessions above it are warned'),
   })
   .describe('how the runs are split into sessions');
 
@@ -444,9 +451,15 @@ function checkStudyRules(data: StudyDocument, file: string): { study: CheckedStu
     if (raw.limits !== undefined) factor.limits = { low: raw.limits.low, high: raw.limits.high };
     if (raw.levels !== undefined) factor.levels = Array.isArray(raw.levels) ? [...raw.levels] : raw.levels;
     if (raw.hardToChange !== undefined) factor.hardToChange = raw.hardToChange;
+    if (raw.settleMinutes !== undefined) {
+      factor.settleMinutes = raw.settleMinutes;
+      if (raw.role === 'operating' && raw.hardToChange !== true) {
+        warnings.push(new InputError('has no effect unless hardToChange is true (only a hard-to-change setting gets a wait step)', { file, key: `${at}.settleMinutes` }).describe());
+      }
+    }
     if (raw.role === 'model') {
       // Only operating settings are run in the lab, so these keys cannot act on a model parameter.
-      for (const key of ['limits', 'levels', 'hardToChange'] as const) {
+      for (const key of ['limits', 'levels', 'hardToChange', 'settleMinutes'] as const) {
         if (raw[key] !== undefined) {
           warnings.push(new InputError(`has no effect on a model parameter (only operating settings are set in the lab)`, { file, key: `${at}.${key}` }).describe());
         }
@@ -499,7 +512,11 @@ function checkStudyRules(data: StudyDocument, file: string): { study: CheckedStu
 
   const result: CheckedStudy = { title: data.title, factors, responses, policy, design, constraints: [...(data.constraints ?? [])] };
   if (data.sessions) {
-    const sessions: SessionSettings = { maxRuns: data.sessions.maxRuns, label: data.sessions.label ?? 'Session' };
+    const sessions: SessionSettings = {
+      maxRuns: data.sessions.maxRuns,
+      label: data.sessions.label ?? 'Session',
+      hours: data.sessions.hours ?? DEFAULT_SESSION_HOURS,
+    };
     result.sessions = sessions;
   }
   if (data.costs) {

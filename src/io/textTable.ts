@@ -9,9 +9,11 @@
  *   ANSI colour sequences take no cell, East Asian wide characters take two, so `°C`, `µm`,
  *   `m³/h` and coloured cells line up.
  * - `null` is an absent value and prints as an en dash `–`.
- * - Numbers keep `digits` significant digits (default 3); integers print in full.
+ * - Numbers keep `digits` significant digits (default 3; `significantText` of numberText.ts);
+ *   integers print in full.
  * - Columns are separated by two spaces; trailing spaces are trimmed from every line.
  */
+import { significantText } from './numberText.js';
 
 export interface TextColumn {
   header: string;
@@ -25,27 +27,6 @@ export type TextCell = string | number | null;
 const ABSENT = '–';
 const COLUMN_GAP = '  ';
 const DEFAULT_DIGITS = 3;
-
-/**
- * A number with `digits` significant digits, in fixed notation for magnitudes a lab
- * reader meets every day (1e-4 ≤ |x| < 1e7) and exponent notation outside that range.
- * Integers print without decimals.
- */
-export function formatNumber(value: number, digits: number = DEFAULT_DIGITS): string {
-  if (Number.isNaN(value)) return 'NaN';
-  if (!Number.isFinite(value)) return value > 0 ? '∞' : '-∞';
-  if (value === 0) return '0';
-  const significant = Math.min(Math.max(Math.round(digits), 1), 15);
-  const magnitude = Math.abs(value);
-  if (Number.isInteger(value) && magnitude < 1e15) return String(value);
-  if (magnitude < 1e-4 || magnitude >= 1e7) {
-    return value.toExponential(significant - 1).replace('e+', 'e');
-  }
-  // Round first, then count decimals on the rounded magnitude, so 0.99996 becomes 1.00, not 1.000.
-  const rounded = Math.abs(Number(value.toPrecision(significant)));
-  const decimals = Math.max(0, significant - 1 - Math.floor(Math.log10(rounded)));
-  return value.toFixed(Math.min(decimals, 20));
-}
 
 /** Terminal cells a string occupies. */
 export function displayWidth(text: string): number {
@@ -129,7 +110,7 @@ export function renderTable(
     const numericOnly = raw.every((cell) => cell === null || typeof cell === 'number');
     aligns.push(column.align ?? (numericOnly ? 'right' : 'left'));
     const numberTexts = alignDecimals(
-      raw.map((cell) => (typeof cell === 'number' ? formatNumber(cell, digits) : undefined)),
+      raw.map((cell) => (typeof cell === 'number' ? significantText(cell, digits) : undefined)),
     );
     raw.forEach((cell, r) => {
       cells[r][c] = cell === null ? ABSENT : typeof cell === 'number' ? (numberTexts[r] as string) : cell;

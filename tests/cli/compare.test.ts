@@ -73,9 +73,9 @@ describe('tierplan compare', () => {
     expect(result.stdout).toMatch(/^Conventional 2\^5 +35 +no, 5 terms/m);
     const costHeader = lines.find((line) => line.startsWith('Plan ') && line.includes('Cost [EUR]'))!;
     expect(costHeader).toMatch(/Runs +Off limits +Level changes +Cost \[EUR\] +Time \[h\] +Runs saved +Cost saved \[EUR\]/);
-    // 35 − 25 = 10 runs, 28.6 % of 35 (savings arithmetic, common practice).
-    expect(result.stdout).toMatch(/^Conventional 2\^5 +35 +\d+ +\d+ +29,990 +106\.4 +10 \(28\.6 %\) +7,780 \(25\.9 %\)$/m);
-    expect(result.stdout).toMatch(/^feed_solids\^3 +\d\.\d{3} +\d+\.\d +\d+\.\d$/m);
+    // 35 − 25 = 10 runs, 28.6 % of 35, printed as a whole per cent (common practice).
+    expect(result.stdout).toMatch(/^Conventional 2\^5 +35 +\d+ +\d+ +29,990 +106\.4 +10 \(29 %\) +7,780 \(26 %\)$/m);
+    expect(result.stdout).toMatch(/^feed_solids\^3 +\d\.\d{3} +\d+\.\d +\d+$/m); // power: whole per cent (numberText.ts)
     expect(result.stdout).toContain('D-eff: textbook D-efficiency 100·|X\'X|^(1/p)/N, relative to an ideal orthogonal');
     expect(result.stdout).toContain('What each plan means');
     expect(result.stdout).toMatch(/Confounded: inlet_temp\^3 with inlet_temp;/);

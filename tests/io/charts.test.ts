@@ -31,8 +31,8 @@ describe('index chart', () => {
     expect(criticalX / moderateX).toBeCloseTo(plan.tiers.policy.critical / plan.tiers.policy.moderate, 6);
     expect(rules).toContain(`stroke-dasharray="${THRESHOLD_STYLE.critical.dash.join(',')}"`);
     expect(rules).toContain(`stroke-dasharray="${THRESHOLD_STYLE.moderate.dash.join(',')}"`);
-    expect(svg).toContain('critical at 0.30 and above');
-    expect(svg).toContain('moderate at 0.05 and above');
+    expect(svg).toContain('critical ≥ 0.30');
+    expect(svg).toContain('moderate ≥ 0.05');
   });
 
   it('draws one bar and one first-order marker per factor, bar length proportional to the total index', async () => {

@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { parse } from 'csv-parse/sync';
 import { scheduleRuns } from '../../src/core/schedule/scheduleRuns.js';
 import { runSheetCsv } from '../../src/io/runSheetCsv.js';
+import { runSheetTable } from '../../src/io/runSheetTable.js';
 import { csvCell, neutraliseFormula } from '../../src/io/csvCell.js';
 import { InputError } from '../../src/core/inputError.js';
 import { sprayDryerPlan } from '../fixtures/plan/sprayDryerPlan.js';
@@ -56,25 +57,53 @@ describe('CSV run sheet layout', () => {
     expect(head.find((row) => row[0] === 'Caution')![1]).toMatch(/rated limits.*hazard review.*licensed practice prevail/);
     expect(csv).not.toMatch(/#/);
 
+    expect(head).toContainEqual(['Checksum', plan.checksum]);
+    // One Session row per session: label, runs, bench hours (6 runs × 3 h = 18 h plus level changes).
+    const sessionRows = head.filter((row) => row[0] === 'Session');
+    expect(sessionRows.map((row) => row[1])).toEqual(['Day 1', 'Day 2', 'Day 3', 'Day 4', 'Day 5'].slice(0, sessionRows.length));
+    expect(sessionRows.reduce((sum, row) => sum + Number(row[2]), 0)).toBe(plan.runs.length);
+    for (const row of sessionRows) expect(Number(row[3])).toBeGreaterThanOrEqual(3 * Number(row[2]));
+
+    // First the machine keys, then the human headers: a reader finds columns by key.
     expect(table[0]).toEqual([
-      'Run no.', 'Day', 'Point', 'Kind of run',
-      'Inlet air temperature [°C]', 'Feed rate [kg/h]', 'Atomiser wheel speed [rpm]',
-      'Residual moisture [% w/w]', 'Powder yield [%]', 'Median particle size [µm]',
-      'Operator', 'Date', 'Remarks',
+      'run', 'session', 'point', 'kind',
+      'set:inlet_temp', 'as_run:inlet_temp', 'set:feed_rate', 'as_run:feed_rate', 'set:atomiser_speed', 'as_run:atomiser_speed',
+      'result:moisture', 'result:yield', 'result:d50',
+      'start', 'end', 'lot', 'operator', 'checked_by', 'date', 'remarks',
     ]);
-    expect(table).toHaveLength(1 + plan.runs.length);
-    const rows = table.slice(1);
+    expect(table[1]).toEqual([
+      'Run no.', 'Day', 'Point', 'Kind of run',
+      'Inlet air temperature [°C]', 'as run [°C]', 'Feed rate [kg/h]', 'as run [kg/h]', 'Atomiser wheel speed [rpm]', 'as run [rpm]',
+      'Residual moisture [% w/w]', 'Powder yield [%]', 'Median particle size [µm]',
+      'Start time', 'End time', 'Material lot', 'Operator', 'Checked by', 'Date', 'Remarks',
+    ]);
+    expect(table).toHaveLength(2 + plan.runs.length);
+    const rows = table.slice(2);
     expect(rows.map((r) => r[0])).toEqual(schedule.order.map((r) => String(r.sequence)));
     expect(rows.map((r) => r[2])).toEqual(schedule.order.map((r) => r.point));
     const byPoint = new Map(plan.runs.map((r) => [r.point, r]));
     for (const row of rows) {
       const run = byPoint.get(row[2])!;
       expect(row[4]).toBe(String(run.settings.inlet_temp)); // precision 1 → no decimals
-      expect(row[5]).toBe(run.settings.feed_rate.toFixed(1)); // precision 0.1 → 1 decimal
-      expect(row[6]).toBe(String(run.settings.atomiser_speed));
-      expect(row.slice(7)).toEqual(['', '', '', '', '', '']);
+      expect(row[6]).toBe(run.settings.feed_rate.toFixed(1)); // precision 0.1 → 1 decimal
+      expect(row[8]).toBe(String(run.settings.atomiser_speed));
+      // As-run, result and record fields are blank for the bench to fill.
+      expect([row[5], row[7], row[9]]).toEqual(['', '', '']);
+      expect(row.slice(10)).toEqual(['', '', '', '', '', '', '', '', '', '']);
       expect(['Model run', 'Centre repeat', 'Validation run']).toContain(row[3]);
     }
+  });
+
+  it('exports one column definition with a group per column, in the order the files write', () => {
+    const { plan, schedule, csv } = sheet();
+    const { columns } = runSheetTable(plan, schedule);
+    const { table } = split(csv);
+    expect(columns.map((column) => column.key)).toEqual(table[0]);
+    expect(columns.map((column) => column.header)).toEqual(table[1]);
+    const groups = columns.map((column) => `${column.group}:${column.id ?? column.kind}`);
+    expect(groups.slice(4, 8)).toEqual(['setPoint:inlet_temp', 'asRun:inlet_temp', 'setPoint:feed_rate', 'asRun:feed_rate']);
+    expect(columns.filter((column) => column.group === 'response').map((column) => column.id)).toEqual(['moisture', 'yield', 'd50']);
+    expect(columns.filter((column) => column.group === 'record').map((column) => column.key)).toEqual(['start', 'end', 'lot', 'operator', 'checked_by', 'date', 'remarks']);
   });
 
   it('is byte-identical for the same plan and seed and differs for another seed', () => {
@@ -138,7 +167,7 @@ describe('CSV formula-injection guard', () => {
     const { head, table } = split(csv);
     expect(head[0][1]).toBe("'=SUM(A1)");
     expect(head).toContainEqual(['Held fixed', '\'=cmd|"/C calc"!A0 [% w/w]', '38.0']);
-    expect(table[0].slice(1, 10)).toEqual([
+    expect([1, 2, 3, 4, 6, 8, 10, 11, 12].map((i) => table[1][i])).toEqual([
       "'-Day", 'Point', 'Kind of run', "'+1 [°C]", "'-cmd [kg/h]", 'Atomiser wheel speed [rpm]', "'@x [% w/w]", "'\tx [%]", "'\rx [µm]",
     ]);
     // Every field that starts with a trigger character in the raw file is a quoted, guarded text
@@ -152,7 +181,7 @@ describe('CSV formula-injection guard', () => {
         expect(field).toMatch(/^(-?\d+(\.\d+)?)?$/);
       }
     }
-    expect(table.slice(1).some((row) => row[5] === '-1.5')).toBe(true);
+    expect(table.slice(2).some((row) => row[6] === '-1.5')).toBe(true);
     expect(csv).toMatch(/,-1\.5,/);
   });
 });

@@ -55,11 +55,12 @@ describe('the bundled spray-dryer sample', () => {
       precision: 1,
       limits: { low: 140, high: 220 },
       hardToChange: true,
+      settleMinutes: 40,
     });
     expect(study.constraints).toEqual(['feed_rate <= 0.2 * inlet_temp - 18']);
     expect(study.design).toEqual({ ...DEFAULT_DESIGN, seed: 20261201 });
     expect(study.policy).toEqual(DEFAULT_POLICY);
-    expect(study.sessions).toEqual({ maxRuns: 6, label: 'Day' });
+    expect(study.sessions).toEqual({ maxRuns: 6, label: 'Day', hours: 22 });
     expect(study.costs).toEqual({ currency: 'EUR', perRun: 850, hoursPerRun: 3, perLevelChange: { cost: 120, hours: 0.7 } });
     expect(study.source).toEqual({
       studyFile: 'samples/spray-dryer/study.yaml',
@@ -81,7 +82,7 @@ describe('defaults and merging', () => {
     expect(study.responses[1].weight).toBe(2);
     expect(study.policy).toEqual({ ...DEFAULT_POLICY, critical: 0.4 });
     expect(study.design).toEqual({ ...DEFAULT_DESIGN, runs: 14, levels: { critical: 4, moderate: 2 } });
-    expect(study.sessions).toEqual({ maxRuns: 4, label: 'Session' });
+    expect(study.sessions).toEqual({ maxRuns: 4, label: 'Session', hours: 8 }); // DEFAULT_SESSION_HOURS
     expect(study.costs).toBeUndefined();
     expect(study.constraints).toEqual([]);
     expect(study.indices).toEqual(BASE_INDEX_ROWS);
@@ -252,7 +253,7 @@ describe('unknown keys are errors with a suggestion', () => {
     expectKeyError(
       (study) => (study.sessions = { maxRuns: 3, colour: 'red' }),
       'sessions.colour',
-      'unknown key "colour"; expected one of maxRuns, label',
+      'unknown key "colour"; expected one of maxRuns, label, hours',
     ));
 });
 
@@ -369,6 +370,10 @@ describe('response, policy, design, session and cost rules', () => {
     ));
   it('sessions need a positive run count', () =>
     expectKeyError((study) => (study.sessions = { maxRuns: 0 }), 'sessions.maxRuns', 'must be at least 1, not 0'));
+  it('a session holds at most 24 hours', () =>
+    expectKeyError((study) => (study.sessions = { maxRuns: 4, hours: 30 }), 'sessions.hours', 'must be at most 24, not 30'));
+  it('a settling time is at most a day, in minutes', () =>
+    expectKeyError((study) => ((study.factors as Record<string, unknown>[])[0].settleMinutes = 2000), 'factors[0].settleMinutes', 'must be at most 1440, not 2000'));
   it('costs need a positive cost per run', () =>
     expectKeyError((study) => (study.costs = { currency: 'EUR', perRun: 0, hoursPerRun: 2 }), 'costs.perRun', 'must be greater than 0, not 0'));
   it('costs need a currency', () =>
@@ -405,6 +410,18 @@ describe('study-level warnings', () => {
     expect(study.warnings).toEqual([
       `${studyPath}, key factors[2].levels: has no effect on a model parameter (only operating settings are set in the lab)`,
       `${studyPath}, key factors[2].hardToChange: has no effect on a model parameter (only operating settings are set in the lab)`,
+    ]);
+  });
+
+  it('a settling time on a factor that is not hard to change is reported, not refused', async () => {
+    const { studyPath } = writeStudy((study) => {
+      study.factors[0].settleMinutes = 15;
+      delete study.factors[0].hardToChange;
+    });
+    const study = await loadStudy(studyPath);
+    expect(study.factors[0].settleMinutes).toBe(15);
+    expect(study.warnings).toEqual([
+      `${studyPath}, key factors[0].settleMinutes: has no effect unless hardToChange is true (only a hard-to-change setting gets a wait step)`,
     ]);
   });
 });

@@ -1,27 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { displayWidth, formatNumber, renderTable } from '../../src/io/textTable.js';
+import { displayWidth, renderTable } from '../../src/io/textTable.js';
 import { painter } from '../../src/io/terminalStyle.js';
-
-describe('formatNumber', () => {
-  it('keeps three significant digits by default', () => {
-    expect(formatNumber(0.46)).toBe('0.460');
-    expect(formatNumber(0.0125)).toBe('0.0125');
-    expect(formatNumber(1 / 3)).toBe('0.333');
-    expect(formatNumber(66.666)).toBe('66.7');
-    expect(formatNumber(-2.345678)).toBe('-2.35');
-  });
-
-  it('counts digits after rounding, prints integers in full and switches to exponents far from 1', () => {
-    expect(formatNumber(0.99996)).toBe('1.00');
-    expect(formatNumber(15000)).toBe('15000');
-    expect(formatNumber(0)).toBe('0');
-    expect(formatNumber(0.00001234)).toBe('1.23e-5');
-    expect(formatNumber(123456789.5)).toBe('1.23e8');
-    expect(formatNumber(0.123456, 5)).toBe('0.12346');
-    expect(formatNumber(Number.NaN)).toBe('NaN');
-    expect(formatNumber(-Infinity)).toBe('-∞');
-  });
-});
 
 describe('displayWidth', () => {
   it('counts terminal cells, not UTF-16 units', () => {

@@ -4,6 +4,7 @@
  * Key names are a contract (plan.json `comparison`, `tierplan compare --json`).
  * Every figure is for the proposed plan's target model, in coded units.
  */
+import type { EqualPrecisionEntry } from './precisionBlock.js';
 
 export type ComparatorId =
   | 'proposed'
@@ -94,4 +95,6 @@ export interface Comparison {
   fdsCurves: { id: ComparatorId; fraction: number[]; variance: number[]; scaledVariance?: number[] }[];
   /** The decision in one or two sentences, for the report. */
   summary: string;
+  /** Runs each plan family needs for the proposed plan's precision target (plan = comparator id); absent without a precision block. */
+  equalPrecision?: EqualPrecisionEntry[];
 }

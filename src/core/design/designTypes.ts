@@ -26,4 +26,8 @@ export interface PlannedRun {
   coded: Record<string, number>;
   /** Factor id → engineering setting, fixed operating factors included. */
   settings: Record<string, number>;
+  /** 1-based whole plot of a split-plot plan, consecutive in run order (absent otherwise). */
+  wholePlot?: number;
+  /** 1-based session the run belongs to, when the design fixes it (split-plot and blocked plans). */
+  session?: number;
 }

@@ -16,7 +16,15 @@
  * - levels are equally spaced over [low, high] in engineering units, rounded to the factor's
  *   precision (exact halves towards the middle of the range, see `settableValue`), and coded from the ROUNDED values (so a coded level may sit slightly off the
  *   equally spaced coded value — the coded value is what the lab will actually set);
- * - explicit levels from the study must already be settable (multiples of the precision) and
+ * - every setting sits on the factor's settable step (`settingStep`): its `precision` when the
+ *   study gives one, otherwise an implied step of IMPLIED_SIGNIFICANT_FIGURES (3) significant
+ *   figures of the range's largest magnitude, made ten times finer while it leaves fewer than
+ *   IMPLIED_MIN_STEPS (20) steps across [low, high] or while a value the study itself gives as a
+ *   setting (the nominal, explicit levels) is not a multiple of it. 30–45 g/min gives 0.1
+ *   (33.3, not 33.3333); 15 000–25 000 rpm gives 100; 1000–1010 gives 0.1. The plan warns once
+ *   per factor that has no precision (`impliedStepNotes`). Every output prints the settings
+ *   plan.json holds, with the decimals of this step, so no two of them can disagree;
+ * - explicit levels from the study must already be settable (multiples of the step) and
  *   lie in [low, high];
  * - a level outside the equipment limits is refused.
  */
@@ -59,21 +67,70 @@ function decimalsOf(precision: number): number {
   return dot < 0 ? 0 : text.length - dot - 1;
 }
 
+/** Significant figures of the range's largest magnitude a setting keeps when no `precision` is given. */
+export const IMPLIED_SIGNIFICANT_FIGURES = 3;
+/** Fewest settable steps across [low, high] an implied step must leave. */
+export const IMPLIED_MIN_STEPS = 20;
+/** An implied step is never finer than this fraction of the range's largest magnitude. */
+const FINEST_IMPLIED = 1e-12;
+
+/** What `settingStep` needs: the range, and the values the study gives as settings. */
+export type SteppedFactor = Pick<Factor, 'low' | 'high' | 'precision'> & Partial<Pick<Factor, 'nominal' | 'levels'>>;
+
 /**
- * The settable value nearest to an engineering setting: a multiple of the precision, with
+ * The settable step of a factor: its `precision`, or the implied step described in the module
+ * header when the study gives none. A power of ten written exactly (`1e-1`, not 0.1000…01).
+ */
+export function settingStep(factor: SteppedFactor): number {
+  if (factor.precision !== undefined && factor.precision > 0) return factor.precision;
+  const magnitude = Math.max(Math.abs(factor.low), Math.abs(factor.high));
+  if (!(magnitude > 0) || !Number.isFinite(magnitude)) return 1;
+  let exponent = Math.floor(Math.log10(magnitude)) - (IMPLIED_SIGNIFICANT_FIGURES - 1);
+  const finest = Math.floor(Math.log10(magnitude * FINEST_IMPLIED));
+  const given = [...(factor.nominal !== undefined ? [factor.nominal] : []), ...(Array.isArray(factor.levels) ? factor.levels : [])];
+  const step = () => Number(`1e${exponent}`);
+  const onStep = (value: number) => Math.abs(roundToPrecision(value, step()) - value) <= 1e-9 * Math.max(1, Math.abs(value));
+  while (exponent > finest && ((factor.high - factor.low) / step() < IMPLIED_MIN_STEPS - 1e-9 || !given.every(onStep))) exponent -= 1;
+  return step();
+}
+
+/** Decimals a setting of this factor is printed with: those of its settable step (0.5 → 1, 100 → 0). */
+export function settingDecimals(factor: SteppedFactor): number {
+  return decimalsOf(settingStep(factor));
+}
+
+/**
+ * One warning per operating factor whose settings are rounded to an implied step because the
+ * study gives no `precision`; `factors` is the study's full list (its indices name the keys).
+ */
+export function impliedStepNotes(factors: Factor[]): string[] {
+  return factors.flatMap((factor, index) => {
+    if (factor.role !== 'operating' || (factor.precision !== undefined && factor.precision > 0)) return [];
+    const step = settingStep(factor);
+    const unit = factor.unit && factor.unit !== '-' ? ` ${factor.unit}` : '';
+    return [
+      `factors[${index}] (${factor.id}) has no precision: its settings are rounded to steps of ${step}${unit} ` +
+        `(${IMPLIED_SIGNIFICANT_FIGURES} significant figures); give precision the step the equipment can be set to`,
+    ];
+  });
+}
+
+/**
+ * The settable value nearest to an engineering setting: a multiple of the settable step, with
  * exact halves rounded towards the middle of [low, high] so that settings mirrored about the
  * middle stay mirrored (30–45 in 0.5 steps: 33.75 → 34 and 41.25 → 41).
  */
-export function settableValue(factor: Pick<Factor, 'low' | 'high' | 'precision'>, value: number): number {
+export function settableValue(factor: SteppedFactor, value: number): number {
   const mid = (factor.low + factor.high) / 2;
-  return value > mid ? -roundToPrecision(-value, factor.precision) : roundToPrecision(value, factor.precision);
+  const step = settingStep(factor);
+  return value > mid ? -roundToPrecision(-value, step) : roundToPrecision(value, step);
 }
 
 /**
  * A coded value rounded to the nearest settable engineering value (`settableValue`) and coded
  * back. Used for centre and holdout points that fall between levels.
  */
-export function settableCoded(factor: Pick<Factor, 'low' | 'high' | 'precision'>, coded: number): number {
+export function settableCoded(factor: SteppedFactor, coded: number): number {
   return roundToPrecision(toCoded(factor, settableValue(factor, toEngineering(factor, coded))));
 }
 
@@ -108,7 +165,7 @@ function levelsOf(
   const override = factor.levels;
 
   if (tier.tier === 'negligible' && override === undefined) {
-    const fixedAt = roundToPrecision(factor.nominal, factor.precision);
+    const fixedAt = roundToPrecision(factor.nominal, settingStep(factor));
     checkLimits(factor, index, [fixedAt], 'nominal');
     return {
       ...base,
@@ -184,10 +241,9 @@ function formatValue(value: number, unit: string): string {
   return unit && unit !== '-' ? `${value} ${unit}` : String(value);
 }
 
-/** Number of settable values (multiples of the precision) inside [low, high]. */
+/** Number of settable values (multiples of the settable step) inside [low, high]. */
 function settableCount(factor: Factor): number {
-  const p = factor.precision;
-  if (p === undefined || !(p > 0)) return Infinity;
+  const p = settingStep(factor);
   const first = Math.ceil(roundNoise(factor.low / p));
   const last = Math.floor(roundNoise(factor.high / p));
   return Math.max(0, last - first + 1);
@@ -201,27 +257,25 @@ function spacedLevels(factor: Factor, index: number, count: number): number[] {
   const available = settableCount(factor);
   if (available < count) {
     throw new InputError(
-      `precision ${factor.precision} leaves only ${available} distinct settings between ${factor.low} and ${factor.high}, ` +
+      `precision ${settingStep(factor)} leaves only ${available} distinct settings between ${factor.low} and ${factor.high}, ` +
         `fewer than the ${count} levels planned; use a finer precision or fewer levels`,
       { key: `factors[${index}].precision` },
     );
   }
-  const p = factor.precision;
+  const p = settingStep(factor);
   const values: number[] = [];
   for (let i = 0; i < count; i++) {
     const exact = factor.low + (i * (factor.high - factor.low)) / (count - 1);
     let v = settableValue(factor, exact);
-    // Keep ends inside the studied range when low/high are not multiples of the precision.
-    if (p !== undefined && p > 0) {
-      if (v < factor.low) v = roundToPrecision(v + p, p);
-      if (v > factor.high) v = roundToPrecision(v - p, p);
-    }
+    // Keep ends inside the studied range when low/high are not multiples of the step.
+    if (v < factor.low) v = roundToPrecision(v + p, p);
+    if (v > factor.high) v = roundToPrecision(v - p, p);
     values.push(v);
   }
   for (let i = 1; i < values.length; i++) {
     if (values[i] <= values[i - 1]) {
       throw new InputError(
-        `rounding to precision ${factor.precision} merges levels ${values[i - 1]} and ${values[i]}; ` +
+        `rounding to precision ${settingStep(factor)} merges levels ${values[i - 1]} and ${values[i]}; ` +
           'use a finer precision or fewer levels',
         { key: `factors[${index}].precision` },
       );
@@ -245,12 +299,12 @@ function explicitLevels(factor: Factor, index: number, listed: number[]): number
         { key },
       );
     }
-    const r = roundToPrecision(v, factor.precision);
-    if (factor.precision !== undefined && Math.abs(r - v) > 1e-9 * Math.max(1, Math.abs(v))) {
-      throw new InputError(`level ${v} is not a multiple of the precision ${factor.precision}`, { key });
+    const r = roundToPrecision(v, settingStep(factor));
+    if (Math.abs(r - v) > 1e-9 * Math.max(1, Math.abs(v))) {
+      throw new InputError(`level ${v} is not a multiple of the precision ${settingStep(factor)}`, { key });
     }
   }
-  const rounded = values.map((v) => roundToPrecision(v, factor.precision));
+  const rounded = values.map((v) => roundToPrecision(v, settingStep(factor)));
   for (let i = 1; i < rounded.length; i++) {
     if (rounded[i] === rounded[i - 1]) {
       throw new InputError(`level ${rounded[i]} is listed twice`, { key });

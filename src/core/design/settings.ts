@@ -2,14 +2,15 @@
  * Engineering settings of a design point: what the lab sets on the equipment.
  *
  * Converts a coded point (design factors only) to engineering units with the coding of
- * ../region/codedUnits.ts (low → −1, high → +1) and rounds every setting to the factor's precision,
- * the smallest step the equipment can be set to (common practice), exact halves towards the
+ * ../region/codedUnits.ts (low → −1, high → +1) and rounds every setting to the factor's settable step
+ * (`settingStep`: its precision, the smallest step the equipment can be set to, or the implied
+ * significant-figure step when the study gives none), exact halves towards the
  * middle of the range as for the levels (`settableValue`). Fixed operating factors
  * appear at their `fixedAt` value so that every run sheet row is complete.
  */
 import type { Factor } from '../study.js';
 import type { FactorLevels } from './designTypes.js';
-import { roundToPrecision, settableValue } from './levels.js';
+import { roundToPrecision, settableValue, settingStep } from './levels.js';
 import { toEngineering } from '../region/codedUnits.js';
 
 /**
@@ -26,7 +27,7 @@ export function settingsFor(
     const factor = factors.find((f) => f.id === level.id);
     if (!factor) throw new Error(`levels name ${level.id}, which is not a study factor`);
     if (!level.varied) {
-      settings[level.id] = level.fixedAt ?? roundToPrecision(factor.nominal, factor.precision);
+      settings[level.id] = level.fixedAt ?? roundToPrecision(factor.nominal, settingStep(factor));
       continue;
     }
     const x = coded[level.id];

@@ -12,7 +12,7 @@ import type { Study } from '../study.js';
 import { InputError } from '../inputError.js';
 import { aboveLimit, checkLimit, limitOf } from '../inputLimits.js';
 import { decideTiers } from '../sensitivity/decideTiers.js';
-import { planLevels } from '../design/levels.js';
+import { impliedStepNotes, planLevels } from '../design/levels.js';
 import { deriveModel } from '../design/modelFromTiers.js';
 import { buildCandidateRegion } from '../region/candidateRegion.js';
 import { centrePoint } from '../design/centreRuns.js';
@@ -146,7 +146,7 @@ export function buildPlan(study: Study, options: BuildPlanOptions): PlanDocument
     model: planModel,
     runs,
     metrics,
-    warnings: [...warnings, ...derived.notes, ...(centre.note ? [centre.note] : []), `I-criterion region moments: ${moments.method}`],
+    warnings: [...warnings, ...impliedStepNotes(study.factors), ...derived.notes, ...(centre.note ? [centre.note] : []), `I-criterion region moments: ${moments.method}`],
   };
 
   plan.schedule = scheduleRuns(plan, design.seed);

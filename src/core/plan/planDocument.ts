@@ -9,6 +9,7 @@ import type { TierResult } from '../sensitivity/tierTypes.js';
 import type { FactorLevels, PlannedRun } from '../design/designTypes.js';
 import type { Comparison } from '../compare/comparisonTypes.js';
 import type { Schedule } from '../schedule/scheduleTypes.js';
+import type { PrecisionBlock } from '../compare/precisionBlock.js';
 
 export interface PlanModel {
   /** Always true: the intercept is implied by the term syntax. */
@@ -63,4 +64,6 @@ export interface PlanDocument {
   comparison?: Comparison;
   /** Filled by the scheduling stage: randomised run order. */
   schedule?: Schedule;
+  /** What the plan can detect and how surely (see precisionBlock.ts); absent in plans made without it. */
+  precision?: PrecisionBlock;
 }

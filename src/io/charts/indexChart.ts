@@ -9,16 +9,25 @@
  * that acts through interactions. Factors are sorted by total index, largest first.
  * Factor names are drawn as vega text marks (escaped by vega), never as axis labels built
  * from strings, so duplicate names cannot merge two bars.
+ *
+ * Layout that keeps every label clear of every line: factor names left of the plot, the value
+ * and tier of each bar in a column right of the plot, the threshold labels above the plot on
+ * rows of their own, and the threshold rules inside the plot only.
  */
 import type { Spec } from 'vega';
 import type { Tier, TierResult } from '../../core/sensitivity/tierTypes.js';
 import { NEUTRAL, THRESHOLD_STYLE, TIER_STYLE } from './chartPalette.js';
-import { chartSpec, dataMark, referenceLabels, referenceRules } from './vegaSpecParts.js';
+import { CHART_FONT_SIZE, chartSpec, dataMark, referenceLabels, referenceRules } from './vegaSpecParts.js';
+import { indexText } from '../numberText.js';
 import { renderVegaSvg } from './vegaSvg.js';
 
-const ROW_HEIGHT = 15;
+const ROW_HEIGHT = 18;
 const TIERS: Tier[] = ['critical', 'moderate', 'negligible'];
-const PLOT_WIDTH = 340;
+const PLOT_WIDTH = 280;
+/** Width of one character of CHART_FONT_SIZE text in a sans face, px, a little wide (common practice: 0.55 em). */
+const CHAR_WIDTH = CHART_FONT_SIZE * 0.58;
+/** Widest room for factor names, px; a longer name is cut with an ellipsis. */
+const MAX_NAME_WIDTH = 360;
 
 export async function indexChartSvg(tiers: TierResult): Promise<string> {
   const factors = [...tiers.factors].sort((a, b) => b.aggregatedTotal - a.aggregatedTotal);
@@ -30,23 +39,29 @@ export async function indexChartSvg(tiers: TierResult): Promise<string> {
     first: factor.aggregatedFirst,
     low: factor.aggregatedTotalLow,
     high: factor.aggregatedTotalHigh,
-    caption: `${factor.aggregatedTotal.toFixed(2)} ${factor.tier}${factor.borderline ? ' (borderline)' : ''}`,
-    captionAt: Math.max(factor.aggregatedTotal, factor.aggregatedTotalHigh ?? 0),
+    caption: `${indexText(factor.aggregatedTotal)} ${factor.tier}${factor.borderline ? ' (borderline)' : ''}`,
+    reach: Math.max(factor.aggregatedTotal, factor.aggregatedTotalHigh ?? 0),
   }));
-  const largest = Math.max(tiers.policy.critical, ...rows.map((row) => row.captionAt));
-  // Room on the right for the value-and-tier caption after the longest bar.
-  const xMax = Math.min(1.35, largest * 1.3 + 0.02);
+  const largest = Math.max(tiers.policy.critical, ...rows.map((row) => row.reach));
+  const xMax = Math.min(1, largest * 1.1 + 0.02);
   const { critical, moderate } = tiers.policy;
+  // One row each above the plot, 16 px apart (more than a line of CHART_FONT_SIZE text).
   const thresholds = [
-    { key: 'critical', at: critical, text: `critical at ${critical.toFixed(2)} and above`, dy: -20 },
-    { key: 'moderate', at: moderate, text: `moderate at ${moderate.toFixed(2)} and above`, dy: -6 },
+    { key: 'critical', at: critical, text: `critical ≥ ${indexText(critical)}`, dy: -20 },
+    { key: 'moderate', at: moderate, text: `moderate ≥ ${indexText(moderate)}`, dy: -4 },
   ];
   const height = Math.max(ROW_HEIGHT * rows.length, ROW_HEIGHT);
 
+  // The frame is sized from the text it must hold, not left to vega's headless text estimate
+  // (about 0.8 em per character, far wider than print), so the chart's natural width is what it
+  // needs and the report never has to shrink it below 8 pt text.
+  const nameWidth = Math.min(MAX_NAME_WIDTH, Math.max(...rows.map((row) => row.label.length)) * CHAR_WIDTH) + 10;
+  const captionWidth = Math.max(...rows.map((row) => row.caption.length)) * CHAR_WIDTH + 14;
   const spec: Spec = chartSpec({
+    autosize: 'none',
     width: PLOT_WIDTH,
     height,
-    padding: { left: 5, top: 5, right: 10, bottom: 5 },
+    padding: { left: nameWidth, top: 38, right: captionWidth, bottom: 42 },
     data: [
       { name: 'factors', values: rows },
       { name: 'intervals', source: 'factors', transform: [{ type: 'filter', expr: 'datum.low != null && datum.high != null' }] },
@@ -74,9 +89,10 @@ export async function indexChartSvg(tiers: TierResult): Promise<string> {
         text: { field: 'label' },
         align: { value: 'right' },
         baseline: { value: 'middle' },
-        fontSize: { value: 10 },
-        // Headless vega guesses text width at 0.8 em per character, so this allows about 55 characters.
-        limit: { value: 440 },
+        fontSize: { value: CHART_FONT_SIZE },
+        // vega cuts text by its own estimate (0.8 em per character): this limit lets through
+        // what fits MAX_NAME_WIDTH at CHAR_WIDTH, about 52 characters.
+        limit: { value: Math.round((MAX_NAME_WIDTH * 0.8 * CHART_FONT_SIZE) / CHAR_WIDTH) },
       }),
       dataMark('rect', 'totalBars', 'factors', {
         x: { scale: 'x', value: 0 },
@@ -104,14 +120,14 @@ export async function indexChartSvg(tiers: TierResult): Promise<string> {
         strokeWidth: { value: 1.25 },
       }),
       dataMark('text', 'barCaptions', 'factors', {
-        x: { scale: 'x', field: 'captionAt', offset: 5 },
+        x: { signal: 'width', offset: 8 },
         y: { scale: 'y', field: 'key', band: 0.5 },
         text: { field: 'caption' },
         baseline: { value: 'middle' },
-        fontSize: { value: 10 },
+        fontSize: { value: CHART_FONT_SIZE },
       }),
       referenceRules('thresholdLines', 'thresholds', {
-        above: 8,
+        above: 0,
         strokeWidth: 1.5,
         stroke: { signal: `datum.key === 'critical' ? '${THRESHOLD_STYLE.critical.stroke}' : '${THRESHOLD_STYLE.moderate.stroke}'` },
         strokeDash: {

@@ -44,7 +44,7 @@ export async function predictionVarianceChartSvg(comparison: Comparison): Promis
   const logarithmic = positive.length === points.length && high / low > 20;
 
   const spec: Spec = chartSpec({
-    width: 330,
+    width: 290,
     height: 140,
     padding: 5,
     data: [{ name: 'points', values: points }, { name: 'markers', values: markers }],
@@ -57,7 +57,7 @@ export async function predictionVarianceChartSvg(comparison: Comparison): Promis
       { name: 'name', type: 'ordinal', domain: ids, range: ids.map((id) => COMPARATOR_SHORT_NAME[id]) },
     ],
     axes: [
-      { orient: 'bottom', scale: 'x', title: 'Fraction of the design region', format: '.0%', tickCount: 5, grid: true },
+      { orient: 'bottom', scale: 'x', title: 'Fraction of the design region', format: '.0%', tickCount: 5, grid: true, labelPadding: 6 },
       {
         orient: 'left',
         scale: 'y',
@@ -77,14 +77,14 @@ export async function predictionVarianceChartSvg(comparison: Comparison): Promis
       {
         stroke: 'stroke',
         strokeDash: 'dash',
-        orient: 'bottom',
-        offset: 6,
+        orient: 'right',
+        offset: 12,
         direction: 'vertical',
         title: 'Plan',
         symbolType: 'stroke',
-        symbolSize: 300,
+        symbolSize: 400,
         symbolStrokeWidth: 2.5,
-        labelLimit: 300,
+        labelLimit: 360,
         encode: { labels: { update: { text: { scale: 'name', field: 'value' } } } },
       },
     ],

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { planLevels, roundToPrecision } from '../../../src/core/design/levels.js';
+import { impliedStepNotes, planLevels, roundToPrecision, settingDecimals, settingStep } from '../../../src/core/design/levels.js';
+import { toCoded, toEngineering } from '../../../src/core/region/codedUnits.js';
 import { expectInputError } from '../../support/expectInputError.js';
 import type { Factor } from '../../../src/core/study.js';
 import { DEFAULT_DESIGN } from '../../../src/core/study.js';
@@ -31,6 +32,42 @@ describe('roundToPrecision', () => {
   it('only cleans noise when no precision is given', () => {
     expect(roundToPrecision(0.1 + 0.2)).toBe(0.3);
     expect(roundToPrecision(1 / 3)).toBeCloseTo(1 / 3, 11);
+  });
+});
+
+describe('settingStep (settings without a precision)', () => {
+  // The rule of levels.ts: 3 significant figures of the range's largest magnitude, ten times finer
+  // while fewer than 20 steps span [low, high] or a value the study gives is off the step.
+  // Expected steps worked out by hand from that rule.
+  it('keeps three significant figures of the range', () => {
+    expect(settingStep({ low: 30, high: 45 })).toBe(0.1);
+    expect(settingStep({ low: 160, high: 200 })).toBe(1);
+    expect(settingStep({ low: 8, high: 16 })).toBe(0.1);
+    expect(settingStep({ low: 15000, high: 25000 })).toBe(100);
+    expect(settingStep({ low: 0.01, high: 0.1 })).toBe(0.001);
+    expect(settingStep({ low: -50, high: -10 })).toBe(0.1); // −33.3
+    expect(settingDecimals({ low: 30, high: 45 })).toBe(1);
+    expect(settingDecimals({ low: 15000, high: 25000 })).toBe(0);
+  });
+
+  it('goes finer for a narrow range or a nominal and levels off the step, and keeps a given precision', () => {
+    // 1000–1010: 3 figures give 10, one step across the range; 0.1 is the first with ≥ 20 steps (100).
+    expect(settingStep({ low: 1000, high: 1010 })).toBe(0.1);
+    expect(settingStep({ low: 30, high: 45, nominal: 37.25 })).toBe(0.01);
+    expect(settingStep({ low: 30, high: 45, levels: [30, 33.333, 45] })).toBe(0.001);
+    expect(settingStep({ low: 30, high: 45, precision: 0.5 })).toBe(0.5);
+  });
+
+  it('rounds the settings of a factor without precision and warns once for it', () => {
+    const factors = withFactor('feed_solids', { precision: undefined, low: 30, high: 44 });
+    const levels = planLevels(factors, sampleTiers(), defaults);
+    const solids = levels.find((level) => level.id === 'feed_solids')!;
+    // 30 + i·14/3 = 30, 34.667, 39.333, 44 → 30, 34.7, 39.3, 44 on 0.1 steps (not 34.6666…)
+    expect(solids.values).toEqual([30, 34.7, 39.3, 44]);
+    const notes = impliedStepNotes(factors);
+    expect(notes).toHaveLength(1);
+    expect(notes[0]).toMatch(/^factors\[1\] \(feed_solids\) has no precision: its settings are rounded to steps of 0\.1 % w\/w \(3 significant figures\)/);
+    expect(impliedStepNotes(sampleFactors())).toEqual([]);
   });
 });
 

@@ -1,10 +1,10 @@
 /**
- * Bench worksheets in a real browser: printed to PDF, every run takes exactly one page, and
+ * Lab worksheets in a real browser: printed to PDF, every run takes exactly one page, and
  * the caution box is on every page.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser } from 'playwright-core';
-import { benchWorksheetsHtml } from '../../src/io/benchWorksheets.js';
+import { labWorksheetsHtml } from '../../src/io/labWorksheets.js';
 import type { PlanDocument } from '../../src/core/plan/planDocument.js';
 import { makeHostilePlanFixture, makePlanFixture, makeSchedule } from '../fixtures/plan/sprayDryerPlan.js';
 import { announceAvailability, hasChromium, launchChromium, pdfPageCount } from './chromiumBrowser.js';
@@ -29,7 +29,7 @@ function crowdedPlan(): PlanDocument {
   return plan;
 }
 
-describe.skipIf(!hasChromium)('bench worksheets in Chromium', () => {
+describe.skipIf(!hasChromium)('lab worksheets in Chromium', () => {
   let browser: Browser;
   beforeAll(async () => {
     browser = await launchChromium();
@@ -54,7 +54,7 @@ describe.skipIf(!hasChromium)('bench worksheets in Chromium', () => {
 
   it('prints one page per run, with a visible caution on each, and fetches nothing', async () => {
     const schedule = makeSchedule();
-    const { pages, cautionBoxes, requests } = await printedPages(await benchWorksheetsHtml(makePlanFixture(), schedule));
+    const { pages, cautionBoxes, requests } = await printedPages(await labWorksheetsHtml(makePlanFixture(), schedule));
     expect(pages).toBe(schedule.order.length);
     expect(cautionBoxes).toBe(schedule.order.length);
     expect(requests.filter((url) => !url.startsWith('data:') && url !== 'about:blank')).toEqual([]);
@@ -62,7 +62,7 @@ describe.skipIf(!hasChromium)('bench worksheets in Chromium', () => {
 
   it('still prints one page per run with four varied factors, six responses and a long factor name', async () => {
     const plan = crowdedPlan();
-    const { pages } = await printedPages(await benchWorksheetsHtml(plan, makeSchedule()));
+    const { pages } = await printedPages(await labWorksheetsHtml(plan, makeSchedule()));
     expect(pages).toBe(plan.runs.length);
   });
 
@@ -74,7 +74,7 @@ describe.skipIf(!hasChromium)('bench worksheets in Chromium', () => {
       dialogs += 1;
       await dialog.dismiss();
     });
-    await page.setContent(await benchWorksheetsHtml(plan, plan.schedule), { waitUntil: 'load' });
+    await page.setContent(await labWorksheetsHtml(plan, plan.schedule), { waitUntil: 'load' });
     expect(await page.locator('script').count()).toBe(0);
     const firstName = await page.locator('.setpoints .name').first().innerText();
     expect(firstName).toContain('<script>alert(1)</script> & "quoted" \'x\'');
