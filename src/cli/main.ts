@@ -9,6 +9,7 @@ import { registerTiers } from './tiersCommand.js';
 import { registerPlan } from './planCommand.js';
 import { registerCompare } from './compareCommand.js';
 import { registerInit } from './initCommand.js';
+import { registerAnalyze } from './analyzeCommand.js';
 import { withExample } from './helpExample.js';
 
 const EXIT_USER_ERROR = 2;
@@ -29,6 +30,7 @@ async function main(argv: string[]): Promise<void> {
   registerTiers(program);
   registerPlan(program);
   registerCompare(program);
+  registerAnalyze(program);
   await program.parseAsync(argv);
 }
 

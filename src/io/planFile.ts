@@ -7,6 +7,7 @@
  * machine and on any day; `createdAt` is metadata only.
  */
 import { createHash } from 'node:crypto';
+import { readFile } from 'node:fs/promises';
 import { InputError } from '../core/inputError.js';
 import type { PlanDocument } from '../core/plan/planDocument.js';
 
@@ -39,6 +40,23 @@ export function checkedPlan(parsed: unknown, path: string): PlanDocument {
     });
   }
   return plan;
+}
+
+/** plan.json read from disk and checked (`checkedPlan`); unreadable or unparsable files are InputErrors. */
+export async function loadPlan(path: string): Promise<PlanDocument> {
+  let text: string;
+  try {
+    text = await readFile(path, 'utf8');
+  } catch (error) {
+    throw new InputError(`cannot read the plan (${(error as NodeJS.ErrnoException).code ?? 'error'})`, { file: path });
+  }
+  let parsed: unknown;
+  try {
+    parsed = JSON.parse(text);
+  } catch (error) {
+    throw new InputError(`is not valid JSON (${(error as Error).message})`, { file: path });
+  }
+  return checkedPlan(parsed, path);
 }
 
 /** JSON with object keys sorted, so the checksum does not depend on construction order. */

@@ -5,7 +5,7 @@
  * - UTF-8 with a byte-order mark (spreadsheet programs need it to read `°C`, `µm`, `m³/h`),
  *   comma-separated, RFC 4180 quoting, CRLF line ends (the RFC's choice, read by every
  *   spreadsheet and text editor).
- * - A header block of label/value rows first — study title, plan id, seed, tool version, how
+ * - A header block of label/value rows first — study title, plan id, checksum (SHA-256 of plan.json), seed, tool version, how
  *   the order was made, the safety caution, one `Held fixed` row per fixed factor (label, then
  *   its value as a number) — then ONE empty line, then the table: a header row and one row per
  *   run in execution order. A program reading the sheet back skips to the first empty line.
@@ -15,7 +15,7 @@
 import type { PlanDocument } from '../core/plan/planDocument.js';
 import type { Schedule } from '../core/schedule/scheduleTypes.js';
 import { csvCell, type CsvValue } from './csvCell.js';
-import { FILL_IN_HINT, SAFETY_CAUTION, runSheetTable } from './runSheetTable.js';
+import { FILL_IN_HINT, IDENTITY_LABELS, SAFETY_CAUTION, runSheetTable } from './runSheetTable.js';
 
 const BOM = '\uFEFF';
 const EOL = '\r\n';
@@ -28,7 +28,8 @@ export function runSheetCsv(plan: PlanDocument, schedule: Schedule): string {
   };
 
   line(['Run sheet', plan.study.title]);
-  line(['Plan id', plan.planId]);
+  line([IDENTITY_LABELS.planId, plan.planId]);
+  line([IDENTITY_LABELS.checksum, plan.checksum]);
   line(['Seed', schedule.seed]);
   line(['Made with', `${plan.tool.name} ${plan.tool.version}`]);
   line(['Run order', schedule.note]);

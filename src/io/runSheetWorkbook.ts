@@ -6,7 +6,7 @@
  * "Plan record".
  *
  * Conventions fixed here:
- * - The run sheet opens with a header block (study title, plan id, seed, tool, how the order
+ * - The run sheet opens with a header block (study title, plan id, seed, tool, checksum, how the order
  *   was made, the safety caution, the factors held fixed with their values), one empty row,
  *   then the table. The panes are frozen below the table's header row; that header row is
  *   repeated on every printed page; pages are landscape and fit to one page wide; the footer
@@ -23,7 +23,7 @@
 import ExcelJS from 'exceljs';
 import type { PlanDocument } from '../core/plan/planDocument.js';
 import type { Schedule } from '../core/schedule/scheduleTypes.js';
-import { FILL_IN_HINT, SAFETY_CAUTION, runSheetTable, type RunSheetTable } from './runSheetTable.js';
+import { FILL_IN_HINT, IDENTITY_LABELS, SAFETY_CAUTION, runSheetTable, type RunSheetTable } from './runSheetTable.js';
 import { withUnit } from './textTable.js';
 
 export const SHEET_NAMES = {
@@ -118,9 +118,10 @@ function addRunSheet(workbook: ExcelJS.Workbook, plan: PlanDocument, schedule: S
 
   const ids = sheet.getRow(row++);
   const idCells: [string, string | number][] = [
-    ['Plan id', plan.planId],
+    [IDENTITY_LABELS.planId, plan.planId],
     ['Seed', schedule.seed],
     ['Made with', `${plan.tool.name} ${plan.tool.version}`],
+    [IDENTITY_LABELS.checksum, plan.checksum],
   ];
   idCells.forEach(([label, value], i) => {
     ids.getCell(1 + 2 * i).value = label;
