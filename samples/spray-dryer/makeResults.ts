@@ -172,8 +172,13 @@ export function filledCsv(plan: PlanDocument): string {
   return `\uFEFF${records.map((row) => (row.length === 1 && row[0] === '' ? '' : row.map(cell).join(','))).join('\r\n')}\r\n`;
 }
 
+/**
+ * The sample's plan exactly as `tierplan plan samples/spray-dryer/study.yaml` makes it from the
+ * repository root: the study path as typed is part of the plan (and so of its id).
+ */
 async function samplePlan(): Promise<PlanDocument> {
-  const study = await loadStudy(join(sampleDir, 'study.yaml'));
+  process.chdir(resolve(sampleDir, '../..'));
+  const study = await loadStudy('samples/spray-dryer/study.yaml');
   const { buildPlan } = await import('../../src/core/plan/buildPlan.js');
   return sealPlan(buildPlan(study, { toolVersion: toolVersion() }));
 }

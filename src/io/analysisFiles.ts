@@ -11,6 +11,11 @@ export function analysisJson(analysis: AnalysisDocument): string {
 }
 
 export async function analysisFiles(analysis: AnalysisDocument, plan: PlanDocument): Promise<OutputFile[]> {
-  void plan;
-  return [{ name: 'analysis.json', content: analysisJson(analysis) }];
+  // The workbook and chart libraries take a moment to load: only when files are written.
+  const [{ analysisWorkbook }, { analysisReportHtml }] = await Promise.all([import('./analysisWorkbook.js'), import('./analysisReport.js')]);
+  return [
+    { name: 'analysis.json', content: analysisJson(analysis) },
+    { name: 'analysis.xlsx', content: await analysisWorkbook(analysis) },
+    { name: 'analysis.html', content: await analysisReportHtml(analysis, plan.study.title) },
+  ];
 }
