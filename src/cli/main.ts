@@ -10,6 +10,7 @@ import { registerPlan } from './planCommand.js';
 import { registerCompare } from './compareCommand.js';
 import { registerInit } from './initCommand.js';
 import { registerAnalyze } from './analyzeCommand.js';
+import { registerAugment } from './augmentCommand.js';
 import { withExample } from './helpExample.js';
 
 const EXIT_USER_ERROR = 2;
@@ -31,6 +32,7 @@ async function main(argv: string[]): Promise<void> {
   registerPlan(program);
   registerCompare(program);
   registerAnalyze(program);
+  registerAugment(program);
   await program.parseAsync(argv);
 }
 

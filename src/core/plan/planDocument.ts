@@ -63,4 +63,6 @@ export interface PlanDocument {
   comparison?: Comparison;
   /** Filled by the scheduling stage: randomised run order. */
   schedule?: Schedule;
+  /** A revision made by `tierplan augment`: the plan it adds runs to. */
+  parent?: { id: string; checksum: string };
 }
