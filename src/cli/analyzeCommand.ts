@@ -32,7 +32,7 @@ export function registerAnalyze(program: Command): void {
   command.action(async (planPath: string, resultsPath: string, options: AnalyzeOptions) => {
     const plan = await loadPlan(planPath);
     const sheet = await readResultsSheet(resultsPath, plan);
-    const { analyzeCampaign } = await import('../core/analysis/campaignAnalysis.js');
+    const { analyzeCampaign } = await import('../core/results/campaignAnalysis.js');
     let analysis;
     try {
       analysis = analyzeCampaign(plan, sheet, { file: resultsPath, sheet: sheet.sheet, toolVersion: toolVersion() });

@@ -2,7 +2,7 @@
  * The readable summary `tierplan analyze` prints: the verdict per response first, then how
  * well each fit predicts, the holdouts, and the lab's sensitivity picture beside the plan's.
  */
-import type { AnalysisDocument } from '../core/analysis/campaignAnalysis.js';
+import type { AnalysisDocument } from '../core/results/campaignAnalysis.js';
 import { formatNumber, renderTable } from '../io/textTable.js';
 
 export function analyzeSummary(analysis: AnalysisDocument): string {

@@ -38,7 +38,7 @@ export function registerAugment(program: Command): void {
     const model = options.model?.split(',').map((term) => term.trim()).filter((term) => term !== '');
     const parent = await loadPlan(planPath);
     const sheet = await readResultsSheet(resultsPath, parent);
-    const [{ analyzeCampaign }, { augmentPlan }] = await Promise.all([import('../core/analysis/campaignAnalysis.js'), import('../core/plan/augmentPlan.js')]);
+    const [{ analyzeCampaign }, { augmentPlan }] = await Promise.all([import('../core/results/campaignAnalysis.js'), import('../core/results/augmentPlan.js')]);
     const analysis = analyzeCampaign(parent, sheet, { file: resultsPath, sheet: sheet.sheet, toolVersion: toolVersion() });
     const { plan: unsealed, modelNote } = augmentPlan(parent, analysis, { runs, model });
     const plan = sealPlan(unsealed);

@@ -2,7 +2,7 @@
  * The files `tierplan analyze --out` writes, in the order they are listed: analysis.json
  * (the contract), analysis.xlsx and analysis.html.
  */
-import type { AnalysisDocument } from '../core/analysis/campaignAnalysis.js';
+import type { AnalysisDocument } from '../core/results/campaignAnalysis.js';
 import type { PlanDocument } from '../core/plan/planDocument.js';
 import type { OutputFile } from './outputSet.js';
 

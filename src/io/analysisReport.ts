@@ -11,7 +11,7 @@
  * through handlebars escaping (`{{ }}`); charts are vega SVG, the only triple-brace content —
  * the same escaping and print rules as the plan report (templates/managerReport.hbs).
  */
-import type { AnalysisDocument } from '../core/analysis/campaignAnalysis.js';
+import type { AnalysisDocument } from '../core/results/campaignAnalysis.js';
 import { holdoutIntervalSvg, indexComparisonSvg, observedPredictedSvg, residualOrderSvg } from './charts/analysisCharts.js';
 import { renderTemplate } from './templateRendering.js';
 import { formatNumber, withUnit } from './textTable.js';

@@ -10,7 +10,7 @@
  * text from the study is written as plain strings, never as formulas; creator "tierplan".
  */
 import ExcelJS from 'exceljs';
-import type { AnalysisDocument, CampaignResponse } from '../core/analysis/campaignAnalysis.js';
+import type { AnalysisDocument, CampaignResponse } from '../core/results/campaignAnalysis.js';
 import { withUnit } from './textTable.js';
 
 const BOLD = { bold: true } as const;

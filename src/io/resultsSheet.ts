@@ -32,7 +32,7 @@ import ExcelJS from 'exceljs';
 import { parse } from 'csv-parse/sync';
 import { InputError } from '../core/inputError.js';
 import type { PlanDocument } from '../core/plan/planDocument.js';
-import type { SheetResults, SheetRun } from '../core/analysis/campaignAnalysis.js';
+import type { SheetResults, SheetRun } from '../core/results/campaignAnalysis.js';
 import { IDENTITY_LABELS, NOT_DONE_WORD, runSheetTable, type RunSheetColumn } from './runSheetTable.js';
 import { SHEET_NAMES } from './runSheetWorkbook.js';
 

@@ -13,7 +13,7 @@
  * print too; nulls are left out of the data.
  */
 import type { Spec } from 'vega';
-import type { CampaignResponse } from '../../core/analysis/campaignAnalysis.js';
+import type { CampaignResponse } from '../../core/results/campaignAnalysis.js';
 import { NEUTRAL, OKABE_ITO } from './chartPalette.js';
 import { chartSpec } from './vegaSpecParts.js';
 import { renderVegaSvg } from './vegaSvg.js';

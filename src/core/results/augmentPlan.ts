@@ -20,7 +20,7 @@
  * - `parent: { id, checksum }` names the parent plan; the comparison is not carried over.
  */
 import { InputError } from '../inputError.js';
-import type { AnalysisDocument } from '../analysis/campaignAnalysis.js';
+import type { AnalysisDocument } from './campaignAnalysis.js';
 import { augmentDesign } from '../design/augmentDesign.js';
 import type { PlannedRun } from '../design/designTypes.js';
 import { settingsFor } from '../design/settings.js';
@@ -31,7 +31,7 @@ import { termLabel } from '../model/modelTerm.js';
 import { parseTerm } from '../model/termSyntax.js';
 import { buildCandidateRegion } from '../region/candidateRegion.js';
 import { scheduleRuns } from '../schedule/scheduleRuns.js';
-import type { PlanDocument } from './planDocument.js';
+import type { PlanDocument } from '../plan/planDocument.js';
 
 export interface AugmentRequest {
   /** Runs to add. */

@@ -29,8 +29,8 @@ import { compileModel } from '../model/modelMatrix.js';
 import { INTERCEPT_LABEL } from '../model/modelTerm.js';
 import { parseTerm } from '../model/termSyntax.js';
 import { toCoded } from '../region/codedUnits.js';
-import type { AnalysisRun, ResponseAnalysis } from './analysisTypes.js';
-import { analyzeResponse } from './analyzeResponse.js';
+import type { AnalysisRun, ResponseAnalysis } from '../analysis/analysisTypes.js';
+import { analyzeResponse } from '../analysis/analyzeResponse.js';
 
 /** Share difference above which the lab and the process model disagree about a factor. */
 export const DISAGREEMENT_SHARE = 0.2;
