@@ -136,3 +136,15 @@ describe('tierplan analyze on the invented sample results', () => {
     expect(result.stderr).toMatch(/results\.xlsx, sheet Run sheet, row 2, column B: plan id TP-\w+ is not the plan id of this plan\.json/);
   });
 });
+
+describe('the committed sample results (samples/spray-dryer/results.xlsx, INVENTED)', () => {
+  it('belong to the plan the README flow makes and analyse to a verdict (rerun `npm run sample:results` when this fails)', () => {
+    const out = join(work, 'readme-flow');
+    expect(runCli(['plan', 'samples/spray-dryer/study.yaml', '--out', out]).status).toBe(0);
+    const result = runCli(['analyze', join(out, 'plan.json'), 'samples/spray-dryer/results.xlsx', '--json']);
+    expect(result.stderr).toBe('');
+    expect(result.status).toBe(0);
+    const analysis = JSON.parse(result.stdout) as AnalysisJson;
+    for (const response of analysis.responses) expect(['calibrated', 'not yet']).toContain(response.verdict);
+  });
+});
