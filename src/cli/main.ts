@@ -17,6 +17,8 @@ import { registerTiers } from './tiersCommand.js';
 import { registerPlan } from './planCommand.js';
 import { registerCompare } from './compareCommand.js';
 import { registerInit } from './initCommand.js';
+import { registerAnalyze } from './analyzeCommand.js';
+import { registerAugment } from './augmentCommand.js';
 import { withExample } from './helpExample.js';
 
 const EXIT_USER_ERROR = 2;
@@ -38,6 +40,8 @@ async function main(argv: string[]): Promise<void> {
   registerTiers(program);
   registerPlan(program);
   registerCompare(program);
+  registerAnalyze(program);
+  registerAugment(program);
   await program.parseAsync(argv);
 }
 

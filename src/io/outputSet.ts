@@ -4,8 +4,9 @@
  * Method: every file is first written under a temporary name in the target folder (same file
  * system, so the final rename is atomic on POSIX and NTFS), then each is renamed into place.
  * A file it replaces is first moved aside to a backup name, so that a failure part-way through
- * the renames can put every earlier file back. plan.json is renamed last: a folder whose
- * plan.json names a plan holds that plan's complete set.
+ * the renames can put every earlier file back. The record file (plan.json, or analysis.json
+ * for an analysis) is renamed last: a folder whose record names a plan holds that plan's
+ * complete set.
  *
  * Conventions fixed here:
  * - The folder is created when missing (and removed again when nothing could be written).
@@ -42,14 +43,15 @@ const PLAN_FILE = 'plan.json';
 export async function writeOutputSet(
   dir: string,
   files: OutputFile[],
-  options: { planId: string; force: boolean; operations?: Partial<FileOperations> },
+  options: { planId: string; force: boolean; operations?: Partial<FileOperations>; recordFile?: string },
 ): Promise<string[]> {
   const ops: FileOperations = { ...realOperations, ...options.operations };
+  const recordFile = options.recordFile ?? PLAN_FILE;
   checkNames(files);
 
   const created = await makeFolder(dir);
   try {
-    await refuseForeignFolder(dir, files, options);
+    await refuseForeignFolder(dir, files, options, recordFile);
   } catch (error) {
     await removeCreatedFolders(dir, created);
     throw error;
@@ -70,8 +72,8 @@ export async function writeOutputSet(
     throw asInputError(error, 'cannot write into');
   }
 
-  // plan.json last, so it never names a plan whose other files are not all in place.
-  const order = files.map((_, i) => i).sort((a, b) => Number(files[a].name === PLAN_FILE) - Number(files[b].name === PLAN_FILE));
+  // The record file last, so it never names a plan whose other files are not all in place.
+  const order = files.map((_, i) => i).sort((a, b) => Number(files[a].name === recordFile) - Number(files[b].name === recordFile));
   const done: { target: string; backup: string | null }[] = [];
   try {
     for (const i of order) {
@@ -127,7 +129,7 @@ async function removeCreatedFolders(dir: string, created: string | undefined): P
   }
 }
 
-async function refuseForeignFolder(dir: string, files: OutputFile[], options: { planId: string; force: boolean }): Promise<void> {
+async function refuseForeignFolder(dir: string, files: OutputFile[], options: { planId: string; force: boolean }, recordFile: string): Promise<void> {
   const present: string[] = [];
   for (const { name } of files) {
     const path = join(dir, name);
@@ -138,10 +140,10 @@ async function refuseForeignFolder(dir: string, files: OutputFile[], options: { 
   }
   if (options.force || present.length === 0) return;
 
-  const existingId = await readPlanId(join(dir, PLAN_FILE));
+  const existingId = (await readPlanId(join(dir, recordFile))) ?? (recordFile === PLAN_FILE ? null : await readPlanId(join(dir, PLAN_FILE)));
   if (existingId === null) {
     throw new InputError(
-      `${dir} already holds ${present.join(', ')} but no readable ${PLAN_FILE} saying which plan they belong to; use --force to overwrite them, or choose another --out folder`,
+      `${dir} already holds ${present.join(', ')} but no readable ${recordFile} saying which plan they belong to; use --force to overwrite them, or choose another --out folder`,
       { file: dir },
     );
   }
@@ -153,11 +155,11 @@ async function refuseForeignFolder(dir: string, files: OutputFile[], options: { 
   }
 }
 
-/** The planId of an existing plan.json, or null when it is missing or unreadable. */
+/** The plan id an existing record file names (`planId`, or `plan.id` of analysis.json), or null when missing or unreadable. */
 async function readPlanId(path: string): Promise<string | null> {
   try {
-    const parsed: unknown = JSON.parse(await fs.readFile(path, 'utf8'));
-    const id = (parsed as { planId?: unknown } | null)?.planId;
+    const parsed = JSON.parse(await fs.readFile(path, 'utf8')) as { planId?: unknown; plan?: { id?: unknown } } | null;
+    const id = parsed?.planId ?? parsed?.plan?.id;
     return typeof id === 'string' && id !== '' ? id : null;
   } catch {
     return null;

@@ -121,3 +121,8 @@ function canonicalJson(value: unknown, top = false): string {
   }
   return JSON.stringify(value) ?? 'null';
 }
+
+/** plan.json read from disk with the JSON safety and size limit of `readPlanJson`, then checked (`checkedPlan`). */
+export async function loadPlan(path: string): Promise<PlanDocument> {
+  return checkedPlan(await readPlanJson(path), path);
+}

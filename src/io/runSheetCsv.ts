@@ -22,7 +22,7 @@ import type { PlanDocument } from '../core/plan/planDocument.js';
 import type { Schedule } from '../core/schedule/scheduleTypes.js';
 import { sessionHours } from '../core/schedule/sessionHours.js';
 import { csvCell, type CsvValue } from './csvCell.js';
-import { FILL_IN_HINT, SAFETY_CAUTION, runSheetTable } from './runSheetTable.js';
+import { FILL_IN_HINT, IDENTITY_LABELS, SAFETY_CAUTION, runSheetTable } from './runSheetTable.js';
 import { rounded } from './numberText.js';
 
 const BOM = '\uFEFF';
@@ -36,8 +36,8 @@ export function runSheetCsv(plan: PlanDocument, schedule: Schedule): string {
   };
 
   line(['Run sheet', plan.study.title]);
-  line(['Plan id', plan.planId]);
-  line(['Checksum', plan.checksum]);
+  line([IDENTITY_LABELS.planId, plan.planId]);
+  line([IDENTITY_LABELS.checksum, plan.checksum]);
   line(['Seed', schedule.seed]);
   line(['Made with', `${plan.tool.name} ${plan.tool.version}`]);
   line(['Caution', SAFETY_CAUTION]);

@@ -136,8 +136,14 @@ export const SAFETY_CAUTION =
   "Before starting, check every setting against the equipment's rated limits and the site's safety procedures. " +
   'This plan does not replace a hazard review; local codes and licensed practice prevail.';
 
-/** What the technician writes in Remarks for a run that could not be done. */
+/** What the technician writes at the start of Remarks for a run that could not be done (any letter case). */
 export const NOT_DONE_WORD = 'not done';
+
+/**
+ * Labels of the identity cells in the header block of both sheets: the label in one cell, its
+ * value in the next filled cell to the right. `tierplan analyze` finds them by these labels.
+ */
+export const IDENTITY_LABELS = { planId: 'Plan id', checksum: 'Checksum' } as const;
 
 export const FILL_IN_HINT =
   'Write each measured result in its column, in the unit shown. Never change a set-point: if the value actually set differs, ' +

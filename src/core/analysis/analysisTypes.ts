@@ -5,7 +5,7 @@
  * terms, coefficients, engineering, anova, rSquared, adjustedRSquared, predictedRSquared,
  * press, residualSd, runs, holdout, verdict), so the writer serialises these objects as
  * they are. Fields beyond the contract (method, inestimable, varianceComponents, validation,
- * sensitivity, noise, flags) are additions the contract allows; none renames a contract key.
+ * sensitivity, noise, flags, verdictReasons, verdictPassed) are additions the contract allows; none renames a contract key.
  *
  * Conventions: coefficients are in coded units (low → −1, high → +1) unless under
  * `engineering`; a value that does not exist (an inestimable term, a statistic without
@@ -186,7 +186,12 @@ export interface ResponseAnalysis {
   validation: HoldoutSummary;
   sensitivity: PolynomialSensitivity | null;
   noise: NoiseComparison | null;
-  verdict: Verdict;
+  /** The contract's verdict: `calibrated` or `not yet`. */
+  verdict: Verdict['status'];
+  /** Why not yet (empty when calibrated), from the verdict rule. */
+  verdictReasons: VerdictReason[];
+  /** What the verdict rule checked and passed, in its order. */
+  verdictPassed: string[];
 }
 
 export interface NoiseComparison {

@@ -172,7 +172,9 @@ export function analyzeResponse(input: ResponseAnalysisInput): ResponseAnalysis 
     validation: summary,
     sensitivity,
     noise,
-    verdict,
+    verdict: verdict.status,
+    verdictReasons: verdict.reasons,
+    verdictPassed: verdict.passed,
   };
 }
 

@@ -66,4 +66,6 @@ export interface PlanDocument {
   schedule?: Schedule;
   /** What the plan can detect and how surely (see precisionBlock.ts); absent in plans made without it. */
   precision?: PrecisionBlock;
+  /** A revision made by `tierplan augment`: the plan it adds runs to. */
+  parent?: { id: string; checksum: string };
 }

@@ -53,8 +53,8 @@ describe('runs without a result', () => {
   });
 
   it('says not yet: a term is inestimable', () => {
-    expect(analysis.verdict.status).toBe('not yet');
-    expect(analysis.verdict.reasons[0]).toEqual({
+    expect(analysis.verdict).toBe('not yet');
+    expect(analysis.verdictReasons[0]).toEqual({
       kind: 'inestimableTerms',
       message: 'the runs with results cannot estimate x1^2: complete the missing runs or drop these terms',
     });
@@ -82,7 +82,7 @@ describe('a saturated fit (as many runs with results as terms)', () => {
       expect([analysis.anova.residual, analysis.anova.lackOfFit, analysis.anova.pureError]).toEqual([null, null, null]);
       expect(analysis.press).toBeNull();
       expect(analysis.holdout[0].predicted).toBeNull();
-      expect(analysis.verdict.reasons.map((r) => r.kind)).toEqual(['noResidualDf', 'noHoldout']);
+      expect(analysis.verdictReasons.map((r) => r.kind)).toEqual(['noResidualDf', 'noHoldout']);
     }
   });
 });

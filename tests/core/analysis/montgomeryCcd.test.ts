@@ -87,8 +87,8 @@ describe('the same example against numpy / scipy to full precision (generate.py)
   });
 
   it('says why it is not yet calibrated: no holdout run was made', () => {
-    expect(analysis.verdict.status).toBe('not yet');
-    expect(analysis.verdict.reasons.map((r) => r.kind)).toEqual(['noHoldout']);
-    expect(analysis.verdict.passed).toContain('no significant lack of fit (p = 0.29 ≥ 0.05)');
+    expect(analysis.verdict).toBe('not yet');
+    expect(analysis.verdictReasons.map((r) => r.kind)).toEqual(['noHoldout']);
+    expect(analysis.verdictPassed).toContain('no significant lack of fit (p = 0.29 ≥ 0.05)');
   });
 });

@@ -1,0 +1,78 @@
+/**
+ * `tierplan augment` end to end on the sample with its invented results
+ * (samples/spray-dryer/makeResults.ts, INVENTED): a new revision with a new plan id and its
+ * parent, the added runs appended, the model extended by the rule when validation failed,
+ * run sheets listing only the added runs, and the combined runs estimating the whole model
+ * (rank checked with an outside library, ml-matrix's SVD). The D-optimality of the added runs
+ * is checked against Dykstra's example in tests/core/design/augmentDesign.test.ts.
+ */
+import { mkdtempSync, readFileSync, readdirSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { parse } from 'csv-parse/sync';
+import { Matrix, SingularValueDecomposition } from 'ml-matrix';
+import { beforeAll, describe, expect, it } from 'vitest';
+import { loadPlan } from '../../src/io/planFile.js';
+import { filledWorkbook } from '../../samples/spray-dryer/makeResults.js';
+import { repoRoot, runCli } from '../support/runCli.js';
+
+const work = mkdtempSync(join(tmpdir(), 'tierplan-augment-'));
+const planPath = join(work, 'plan', 'plan.json');
+const xlsx = join(work, 'results.xlsx');
+
+beforeAll(async () => {
+  expect(runCli(['plan', join(repoRoot, 'samples/spray-dryer/study.yaml'), '--out', join(work, 'plan'), '--starts', '4']).status).toBe(0);
+  writeFileSync(xlsx, await filledWorkbook(await loadPlan(planPath)));
+});
+
+interface Run {
+  point: string;
+  purpose: string;
+  coded: Record<string, number>;
+}
+
+describe('tierplan augment', () => {
+  it('writes a revision whose added runs complete the extended model', () => {
+    const out = join(work, 'revision');
+    const analysis = JSON.parse(runCli(['analyze', planPath, xlsx, '--json']).stdout);
+    const result = runCli(['augment', planPath, xlsx, '--runs', '4', '--out', out]);
+    expect(result.stderr).toBe('');
+    expect(result.status).toBe(0);
+    expect(readdirSync(out).sort()).toEqual(['plan.json', 'runsheet.csv', 'runsheet.xlsx', 'worksheets.html']);
+    const parent = JSON.parse(readFileSync(planPath, 'utf8'));
+    const revision = JSON.parse(readFileSync(join(out, 'plan.json'), 'utf8'));
+    expect(revision.planId).not.toBe(parent.planId);
+    expect(revision.parent).toEqual({ id: parent.planId, checksum: parent.checksum });
+    expect(revision.runs.slice(0, parent.runs.length)).toEqual(parent.runs);
+    const added: Run[] = revision.runs.slice(parent.runs.length);
+    expect(added.map((run) => run.point)).toEqual(['A01', 'A02', 'A03', 'A04']);
+    // The rule: lack of fit in any response adds the missing squares and interactions.
+    const lackOfFit = analysis.responses.some((r: { verdictReasons: { kind: string }[] }) => r.verdictReasons.some((reason) => reason.kind === 'lackOfFit'));
+    if (lackOfFit) {
+      expect(revision.model.terms.length).toBeGreaterThan(parent.model.terms.length);
+      expect(result.stdout).toMatch(/Model extended by .*\(lack of fit in \w+\)/);
+    }
+    expect(revision.model.terms.slice(0, parent.model.terms.length)).toEqual(parent.model.terms);
+    // Every run done plus the added ones estimate the revision's whole model.
+    const X = new Matrix(
+      revision.runs.map((run: Run) => [1, ...revision.model.terms.map((term: string) => term.split('*').reduce((v, f) => v * run.coded[f.split('^')[0]] ** Number(f.split('^')[1] ?? 1), 1))]),
+    );
+    expect(new SingularValueDecomposition(X).rank).toBe(revision.model.terms.length + 1);
+    // The run sheet lists the added runs only, numbered after the parent's last run.
+    const text = readFileSync(join(out, 'runsheet.csv'), 'utf8').slice(1);
+    const rows = parse(text.slice(text.indexOf('\r\n\r\n') + 4)) as string[][];
+    expect(rows.slice(1).map((row) => row[rows[0].indexOf('Point')]).sort()).toEqual(['A01', 'A02', 'A03', 'A04']);
+    expect(rows.slice(1).map((row) => Number(row[0])).sort((a, b) => a - b)).toEqual([1, 2, 3, 4].map((i) => parent.runs.length + i));
+  });
+
+  it('takes an explicit model, and refuses a run count below one', () => {
+    const parent = JSON.parse(readFileSync(planPath, 'utf8'));
+    const terms = [...parent.model.terms, 'feed_rate*atomiser_speed'];
+    const result = runCli(['augment', planPath, xlsx, '--runs', '2', '--model', terms.join(','), '--json']);
+    expect(result.status).toBe(0);
+    expect(JSON.parse(result.stdout).model.terms).toEqual(terms);
+    const refused = runCli(['augment', planPath, xlsx, '--runs', '0']);
+    expect(refused.status).toBe(2);
+    expect(refused.stderr).toMatch(/--runs must be a whole number of at least 1, not 0/);
+  });
+});
