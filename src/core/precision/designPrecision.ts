@@ -16,6 +16,7 @@ import { symmetricInverse } from '../evaluate/cholesky.js';
 import type { PredictedEffects } from './predictedEffects.js';
 import type { FactorPrecision, InteractionPrecision } from './precisionTypes.js';
 import { covarianceBlock, termBlockPower } from './termBlockPower.js';
+import { noncentralityForPower } from '../distribution/noncentralF.js';
 
 export interface PrecisionRequest {
   /** The primary (fitted) model. */
@@ -38,6 +39,11 @@ export interface DesignPrecision {
   /** Lowest power over every entry (null entries count as 0); null when there are no entries. */
   weakestPower: number | null;
   met: boolean;
+  /**
+   * Largest ratio λ needed / λ reached over the entries below the target (1 when met;
+   * Infinity when an entry cannot be tested): how much more information the weakest needs.
+   */
+  shortfall: number;
 }
 
 export function designPrecision(request: PrecisionRequest): DesignPrecision {
@@ -45,6 +51,16 @@ export function designPrecision(request: PrecisionRequest): DesignPrecision {
   const { p } = model;
   const k = model.factorIds.length;
   const blocks = factorBlocks(model);
+  let shortfall = 1;
+  const track = (q: number, lambda: number, power: number | null) => {
+    if (power === null || !Number.isFinite(lambda)) {
+      shortfall = Number.POSITIVE_INFINITY;
+      return;
+    }
+    if (power >= request.power) return;
+    const needed = noncentralityForPower(q, residualDf, alpha, request.power);
+    shortfall = Math.max(shortfall, lambda > 0 ? needed / lambda : Number.POSITIVE_INFINITY);
+  };
 
   const factors: FactorPrecision[] = request.effects.factors.map((effect) => {
     const j = model.factorIds.indexOf(effect.factor);
@@ -57,15 +73,20 @@ export function designPrecision(request: PrecisionRequest): DesignPrecision {
       power: null,
       terms: block ? block.terms.map((t) => request.termLabels[t]) : [],
     };
-    if (!block || block.linear < 0 || covariance === null) return entry;
+    if (!block || block.linear < 0 || covariance === null) {
+      track(1, Number.NaN, null);
+      return entry;
+    }
     const coefficients = block.terms.map((t) => (t === block.linear ? effect.effect : 0));
-    entry.power = termBlockPower({
+    const tested = termBlockPower({
       covarianceBlock: covarianceBlock(covariance, p, block.terms),
       coefficients,
       sigma: effect.noise,
       residualDf,
       alpha,
-    }).power;
+    });
+    entry.power = tested.power;
+    track(tested.q, tested.noncentrality, tested.power);
     return entry;
   });
 
@@ -84,10 +105,12 @@ export function designPrecision(request: PrecisionRequest): DesignPrecision {
       if (match) term = t;
     }
     if (term < 0) continue;
-    const power =
+    const tested =
       covariance === null
         ? null
-        : termBlockPower({ covarianceBlock: covarianceBlock(covariance, p, [term]), coefficients: [effect.effect], sigma: effect.noise, residualDf, alpha }).power;
+        : termBlockPower({ covarianceBlock: covarianceBlock(covariance, p, [term]), coefficients: [effect.effect], sigma: effect.noise, residualDf, alpha });
+    const power = tested?.power ?? null;
+    track(1, tested?.noncentrality ?? Number.NaN, power);
     interactions.push({ factors: [...effect.factors], response: effect.response, effect: effect.effect, effectInNoise: effect.effect / effect.noise, power });
   }
 
@@ -100,7 +123,13 @@ export function designPrecision(request: PrecisionRequest): DesignPrecision {
       weakest = entry;
     }
   }
-  return { factors, interactions, weakest, weakestPower, met: weakestPower === null || weakestPower >= request.power - 1e-12 };
+  const met = weakestPower === null || weakestPower >= request.power - 1e-12;
+  return { factors, interactions, weakest, weakestPower, met, shortfall: met ? 1 : shortfall };
+}
+
+/** (X'X)⁻¹ and ν = n − p from an information matrix over n fitted runs, or a null covariance when it is singular. */
+export function informationCovariance(information: Float64Array, p: number, n: number): { covariance: Float64Array | null; residualDf: number } {
+  return { covariance: n >= p ? symmetricInverse(information, p) : null, residualDf: n - p };
 }
 
 /** (X'X)⁻¹ and ν = n − p over the fitted points (fit + centre runs), or null when X'X is singular. */
