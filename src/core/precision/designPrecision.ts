@@ -30,6 +30,8 @@ export interface PrecisionRequest {
   alpha: number;
   /** Target power, for `met`. */
   power: number;
+  /** Fitted runs behind `covariance`; refines `shortfall` for the degrees of freedom a larger plan would have. */
+  fittedRuns?: number;
 }
 
 export interface DesignPrecision {
@@ -58,8 +60,15 @@ export function designPrecision(request: PrecisionRequest): DesignPrecision {
       return;
     }
     if (power >= request.power) return;
-    const needed = noncentralityForPower(q, residualDf, alpha, request.power);
-    shortfall = Math.max(shortfall, lambda > 0 ? needed / lambda : Number.POSITIVE_INFINITY);
+    if (!(lambda > 0)) {
+      shortfall = Number.POSITIVE_INFINITY;
+      return;
+    }
+    let ratio = noncentralityForPower(q, residualDf, alpha, request.power) / lambda;
+    // λ grows with the runs, and so does ν, which lowers the λ needed: one refinement step.
+    const n = request.fittedRuns;
+    if (n !== undefined && ratio > 1) ratio = noncentralityForPower(q, residualDf + Math.round(n * (ratio - 1)), alpha, request.power) / lambda;
+    shortfall = Math.max(shortfall, ratio);
   };
 
   const factors: FactorPrecision[] = request.effects.factors.map((effect) => {
