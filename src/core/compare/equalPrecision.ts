@@ -15,7 +15,8 @@
  * equipment limits, cannot reach the precision (runs null, with the reason).
  */
 import type { CompiledModel } from '../model/modelMatrix.js';
-import { crossProduct, modelMatrix } from '../model/modelMatrix.js';
+import { modelMatrix } from '../model/modelMatrix.js';
+import { crossProduct } from '../linalg/crossProduct.js';
 import type { PredictedEffects } from '../precision/predictedEffects.js';
 import { designPrecision, informationCovariance } from '../precision/designPrecision.js';
 import type { ComparatorId } from './comparisonTypes.js';

@@ -24,7 +24,7 @@ import { termLabel } from '../model/modelTerm.js';
 import type { TierResult } from '../sensitivity/tierTypes.js';
 import type { InteractionRow } from '../study.js';
 import type { FactorLevels } from './designTypes.js';
-import { parseTerm } from './termSyntax.js';
+import { parseTerm } from '../model/termSyntax.js';
 
 /** Lower edge of the interaction band, as a fraction of `policy.interaction`. */
 export const INTERACTION_BAND = 0.5;

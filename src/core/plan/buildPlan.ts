@@ -20,7 +20,7 @@ import { settingsFor } from '../design/settings.js';
 import { boundForRegion } from '../design/continuousBound.js';
 import { potentialTerms } from '../design/potentialTerms.js';
 import { potentialPrior } from '../design/potentialPrior.js';
-import { randomFeasiblePoint } from '../design/gridSampling.js';
+import { randomFeasiblePoint } from '../region/gridSampling.js';
 import { regionMoments } from '../evaluate/regionMoments.js';
 import { compileModel, modelMatrix, subModel, type CompiledModel } from '../model/modelMatrix.js';
 import { INTERCEPT_LABEL, termLabel, type ModelTerm } from '../model/modelTerm.js';
@@ -29,7 +29,8 @@ import { sizeCampaign } from './campaignSize.js';
 import { xoroshiro128plus } from 'pure-rand/generator/xoroshiro128plus';
 import { scheduleRuns } from '../schedule/scheduleRuns.js';
 import { buildComparison } from '../compare/buildComparison.js';
-import type { CandidateRegion, FactorLevels, PlannedRun, RunPurpose } from '../design/designTypes.js';
+import type { FactorLevels, PlannedRun, RunPurpose } from '../design/designTypes.js';
+import type { CandidateRegion } from '../region/candidateRegion.js';
 import type { PlanDocument, PlanMetrics, PlanModel } from './planDocument.js';
 
 export interface BuildPlanOptions {

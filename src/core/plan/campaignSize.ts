@@ -17,7 +17,7 @@
 import { InputError } from '../inputError.js';
 import type { CompiledModel } from '../model/modelMatrix.js';
 import { subModel } from '../model/modelMatrix.js';
-import type { CandidateRegion } from '../design/designTypes.js';
+import type { CandidateRegion } from '../region/candidateRegion.js';
 import { findExactDesign, type ExactDesignResult } from '../design/exactDesign.js';
 import { defaultRunCount } from '../design/runCount.js';
 import type { Criterion, PrecisionTarget } from '../study.js';

@@ -12,7 +12,7 @@
  */
 import type { CompiledModel } from '../model/modelMatrix.js';
 import { informationMatrix } from '../model/modelMatrix.js';
-import { symmetricInverse } from '../evaluate/cholesky.js';
+import { symmetricInverse } from '../linalg/cholesky.js';
 import type { PredictedEffects } from './predictedEffects.js';
 import type { FactorPrecision, InteractionPrecision } from './precisionTypes.js';
 import { covarianceBlock, termBlockPower } from './termBlockPower.js';

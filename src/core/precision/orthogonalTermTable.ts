@@ -9,9 +9,9 @@
  * (Marquardt, 1970). Fitted runs = fitting runs plus centre replicates.
  */
 import type { CompiledModel } from '../model/modelMatrix.js';
-import { crossProduct } from '../model/modelMatrix.js';
+import { crossProduct } from '../linalg/crossProduct.js';
 import { legendreLabel, legendreModelMatrix } from '../model/legendreCoding.js';
-import { symmetricInverse } from '../evaluate/cholesky.js';
+import { symmetricInverse } from '../linalg/cholesky.js';
 import { varianceInflationFactors } from '../evaluate/varianceInflation.js';
 
 export interface OrthogonalTerm {

@@ -17,7 +17,7 @@
  * the block's own order is kept; ν is passed in (N − p for OLS; a containment rule for
  * split-plot designs is the caller's choice).
  */
-import { choleskyFactor } from '../evaluate/cholesky.js';
+import { choleskyFactor } from '../linalg/cholesky.js';
 import { fTestPower } from '../distribution/noncentralF.js';
 
 /** The T×T block of a p × p row-major matrix. */

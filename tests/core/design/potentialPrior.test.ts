@@ -4,8 +4,8 @@
 import { describe, expect, it } from 'vitest';
 import fixture from '../../reference/precision/precision.json' with { type: 'json' };
 import { potentialPrior } from '../../../src/core/design/potentialPrior.js';
-import { crossProduct } from '../../../src/core/model/modelMatrix.js';
-import { invertSymmetric } from '../../../src/core/evaluate/cholesky.js';
+import { crossProduct } from '../../../src/core/linalg/crossProduct.js';
+import { invertSymmetric } from '../../../src/core/linalg/cholesky.js';
 
 type Case = typeof fixture.potentialOneFactor;
 
