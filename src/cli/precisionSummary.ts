@@ -8,8 +8,8 @@ import { renderTable } from '../io/textTable.js';
 
 export function precisionSummaryLines(plan: Pick<PlanDocument, 'precision' | 'study' | 'levels'>): string[] {
   const view = precisionView(plan);
+  if (plan.precision.basis === 'none') return ['Precision', view.headline];
   const lines: string[] = [`Precision (${view.target})`, view.headline];
-  if (plan.precision.basis === 'none') return lines;
   if (view.weakest) lines.push(`Weakest: ${view.weakest}`);
   if (view.factors.length > 0) {
     lines.push('');

@@ -165,7 +165,8 @@ export function sizeCampaign(request: CampaignSizeRequest): CampaignSize {
       runCurve: curve,
       fixed: effects.fixed.map((entry) => ({ factor: entry.factor, response: entry.response, largestEffectInNoise: entry.largestEffectInNoise })),
       statement,
-      notes: effects.notes,
+      // Not judged at all: the statement's one sentence says it; per-response notes would repeat it.
+      notes: judged ? effects.notes : [],
       fittedRuns: fitted,
       residualDf: fitted - p,
     },
