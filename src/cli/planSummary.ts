@@ -1,17 +1,21 @@
 /**
- * The short readable summary `tierplan plan` prints: what is varied, the model and why,
- * how many runs, how good the plan is and relative to what, and what it saves.
+ * The short readable summary `tierplan plan` prints: first whether the campaign sees every
+ * predicted effect (the precision block), then what is varied, the model and why (potential
+ * terms included), how many runs, how good the plan is and relative to what, and what it saves.
  */
 import type { PlanDocument } from '../core/plan/planDocument.js';
 import { counted } from '../core/countedNoun.js';
 import { renderTable } from '../io/textTable.js';
 import { efficiencyText, indexText, settingText, varianceText } from '../io/numberText.js';
+import { precisionSummaryLines } from './precisionSummary.js';
 
 export function planSummary(plan: PlanDocument): string {
   const lines: string[] = [];
   const { metrics } = plan;
   lines.push(plan.study.title);
   lines.push(`Plan ${plan.planId || '(unsealed)'} · seed ${metrics.seed} · tierplan ${plan.tool.version}`);
+  lines.push('');
+  lines.push(...precisionSummaryLines(plan));
   lines.push('');
 
   const tierOf = new Map(plan.tiers.factors.map((factor) => [factor.id, factor]));
@@ -38,6 +42,17 @@ export function planSummary(plan: PlanDocument): string {
       { title: `Model: p = ${metrics.p} parameters (${plan.model.source === 'tiers' ? 'derived from the tiers' : `${plan.model.source} model`})` },
     ),
   );
+  const potential = plan.model.potentialExplained ?? plan.model.potential.map((term) => ({ term, reason: '' }));
+  if (potential.length > 0) {
+    lines.push('');
+    lines.push(
+      renderTable(
+        [{ header: 'Potential term' }, { header: 'Why the plan guards against it (not fitted)' }],
+        potential.map((entry) => [entry.term, entry.reason]),
+        { title: 'Potential terms (Bayesian D-optimality, DuMouchel & Jones 1994): guarded against without a run for each' },
+      ),
+    );
+  }
   lines.push('');
 
   const count = (purpose: string) => plan.runs.filter((run) => run.purpose === purpose).length;

@@ -40,6 +40,11 @@ export interface Factor {
    * worksheets as a wait step (0 to 1440, optional; no effect unless `hardToChange`).
    */
   settleMinutes?: number;
+  /**
+   * The range the sensitivity analysis sampled, when it differs from [low, high]; predicted
+   * effects are scaled by (high − low) / (analysedRange.high − analysedRange.low).
+   */
+  analysedRange?: { low: number; high: number };
 }
 
 export interface Response {
@@ -48,6 +53,12 @@ export interface Response {
   unit: string;
   /** Relative weight for the `weighted` aggregate; defaults to 1. */
   weight: number;
+  /** Standard deviation of the response over the analysed input ranges, as the sensitivity analysis reports it (engineering units). */
+  spread?: number;
+  /** Standard deviation of one lab result: repeatability of process plus measurement (engineering units). */
+  noise?: number;
+  /** Smallest change across the studied range worth detecting (engineering units); used when `spread` is absent. */
+  smallestEffect?: number;
 }
 
 /** One row of the first-order / total index table (long format). */
@@ -99,8 +110,18 @@ export function isCriterion(text: string): text is Criterion {
   return (CRITERIA as readonly string[]).includes(text);
 }
 
+export interface PrecisionTarget {
+  /** Power every required effect must reach. Default 0.8 (common practice). */
+  power: number;
+  /** Level of the tests. Default 0.05. */
+  alpha: number;
+}
+
 export interface DesignSettings {
-  /** Fitting runs, or `auto` for p plus the lack-of-fit allowance. */
+  /**
+   * Fitting runs, or `auto`: the smallest number whose plan meets the precision target (or,
+   * when no response gives `noise`, p plus the lack-of-fit allowance).
+   */
   runs: number | 'auto';
   /** Derived from the tiers when absent; otherwise a preset or an explicit term list. */
   model?: ModelPreset | string[];
@@ -113,6 +134,12 @@ export interface DesignSettings {
   levels: { critical: number; moderate: number };
   /** Number of random starts of the exchange search. */
   starts: number;
+  /** The power target of the precision block. */
+  precision: PrecisionTarget;
+  /** Cap on the fitting runs `auto` may choose; absent = `defaultMaxRuns(p)` (4p). */
+  maxRuns?: number;
+  /** Potential terms (Bayesian D-optimality): `auto` (the rule in potentialTerms.ts) or a term list ([] for none). */
+  potential: 'auto' | string[];
 }
 
 export interface SessionSettings {
@@ -190,4 +217,6 @@ export const DEFAULT_DESIGN: DesignSettings = {
   seed: 1,
   levels: { critical: 4, moderate: 3 },
   starts: 20,
+  precision: { power: 0.8, alpha: 0.05 },
+  potential: 'auto',
 };

@@ -14,7 +14,7 @@
  */
 import type { PlanDocument } from '../core/plan/planDocument.js';
 import { decisionFacts, type DecisionFacts, type MainRisk, type PlanFigures } from '../core/plan/decisionFacts.js';
-import type { FactorPrecision, InteractionPrecision } from '../core/compare/precisionBlock.js';
+import type { FactorPrecision, InteractionPrecision } from '../core/precision/precisionTypes.js';
 import { wordList } from '../core/wordList.js';
 import { comparatorName, comparatorNameInSentence } from './comparatorNames.js';
 import { ABSENT, countOf, countText, hoursText, moneyText, noiseUnitsText, powerText } from './numberText.js';
@@ -212,7 +212,7 @@ function precisionView(plan: PlanDocument, facts: DecisionFacts, nameOf: (id: st
   const precision = facts.precision;
   if (precision && precision.basis !== 'none') {
     const entries: (FactorPrecision | InteractionPrecision)[] = [...precision.factors, ...precision.interactions];
-    const short = entries.filter((entry) => entry.power < precision.power);
+    const short = entries.filter((entry) => (entry.power ?? 0) < precision.power);
     const lead = precision.met
       ? `Every effect the sensitivity analysis predicts is detected with at least ${powerText(precision.power)} power (α = ${precision.alpha}).`
       : `${countOf(short.length, 'predicted effect')} of ${entries.length} ${short.length === 1 ? 'falls' : 'fall'} short of the ${powerText(precision.power)} power target (α = ${precision.alpha}).`;
@@ -221,10 +221,10 @@ function precisionView(plan: PlanDocument, facts: DecisionFacts, nameOf: (id: st
     for (const entry of entries) {
       const key = effectName(entry, nameOf);
       const kept = byFactor.get(key);
-      if (!kept || entry.power < kept.power) byFactor.set(key, entry);
+      if (!kept || (entry.power ?? 0) < (kept.power ?? 0)) byFactor.set(key, entry);
     }
     const items = [...byFactor.values()]
-      .sort((a, b) => a.power - b.power)
+      .sort((a, b) => (a.power ?? 0) - (b.power ?? 0))
       .slice(0, 5)
       .map((entry) => `${effectName(entry, nameOf)}: weakest on ${nameOf(entry.response)}, an effect of ${noiseUnitsText(entry.effectInNoise)}, power ${powerText(entry.power)}.`);
     const fixed = [...precision.fixed].sort((a, b) => b.largestEffectInNoise - a.largestEffectInNoise)[0];

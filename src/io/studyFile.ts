@@ -112,6 +112,13 @@ const factorSchema = z.strictObject({
     .describe('a level count, or the level values, instead of the count the tier gives'),
   hardToChange: z.boolean().optional().describe('true when changing the setting is slow or costly: runs sharing it are kept together'),
   settleMinutes: z.number().min(0).max(1440).optional().describe('minutes a hard-to-change factor needs to settle after a change (0–1440)'),
+  analysedRange: z
+    .strictObject({
+      low: z.number().describe('low end of the range the sensitivity analysis sampled'),
+      high: z.number().describe('high end of that range'),
+    })
+    .optional()
+    .describe('the range the sensitivity analysis sampled, when it differs from low–high; predicted effects are scaled to the plan range'),
 });
 
 const responseSchema = z.strictObject({
@@ -119,6 +126,13 @@ const responseSchema = z.strictObject({
   name: filledText().min(1).describe('readable name, shown on the run sheets and the report'),
   unit: filledText().describe('unit the response is measured in; "-" when it has none'),
   weight: capped(z.number().positive(), 'numberMagnitude').optional().describe('relative weight under the weighted aggregate (default 1)'),
+  spread: z.number().positive().optional().describe('standard deviation of the response over the analysed ranges, as the sensitivity analysis reports it'),
+  noise: z.number().positive().optional().describe('standard deviation of one lab result (repeatability of process plus measurement)'),
+  smallestEffect: z
+    .number()
+    .positive()
+    .optional()
+    .describe('smallest change across the studied range worth detecting; used when spread is absent'),
 });
 
 const policySchema = z
@@ -165,6 +179,18 @@ const designSchema = z
     seed: z.number().int().min(0).max(4294967295).optional().describe('random seed of the search and the run order (default 1)'),
     levels: levelsSchema.optional(),
     starts: capped(z.number().int().min(1), 'starts').optional().describe('random starts of the exchange search (default 20)'),
+    precision: z
+      .strictObject({
+        power: z.number().optional().describe('power every predicted effect must reach (default 0.8)'),
+        alpha: z.number().optional().describe('level of the tests (default 0.05)'),
+      })
+      .optional()
+      .describe('the precision target the run count is sized to'),
+    maxRuns: z.number().int().min(1).optional().describe('most fitting runs that runs: auto may choose (default 4 × the model parameters)'),
+    potential: z
+      .union([z.literal('auto'), z.array(z.string().min(1))], { error: 'must be "auto" or a list of model terms such as [inlet_temp^3] ([] for none)' })
+      .optional()
+      .describe('potential terms the plan guards against without estimating them: auto (default) or a term list, [] for none'),
   })
   .describe('the design search');
 
@@ -245,6 +271,8 @@ const KEYS_AT: Readonly<Record<string, readonly string[]>> = {
   '': Object.keys(studySchema.shape),
   'factors[]': Object.keys(factorSchema.shape),
   'factors[].limits': Object.keys(limitsSchema.shape),
+  'factors[].analysedRange': Object.keys(limitsSchema.shape),
+  'design.precision': ['power', 'alpha'],
   'responses[]': Object.keys(responseSchema.shape),
   policy: Object.keys(policySchema.shape),
   design: Object.keys(designSchema.shape),
@@ -457,9 +485,15 @@ function checkStudyRules(data: StudyDocument, file: string): { study: CheckedStu
         warnings.push(new InputError('has no effect unless hardToChange is true (only a hard-to-change setting gets a wait step)', { file, key: `${at}.settleMinutes` }).describe());
       }
     }
+    if (raw.analysedRange) {
+      if (!(raw.analysedRange.low < raw.analysedRange.high)) {
+        fail(`${at}.analysedRange.high`, `analysedRange.high (${raw.analysedRange.high}) must be greater than analysedRange.low (${raw.analysedRange.low})`);
+      }
+      factor.analysedRange = { low: raw.analysedRange.low, high: raw.analysedRange.high };
+    }
     if (raw.role === 'model') {
       // Only operating settings are run in the lab, so these keys cannot act on a model parameter.
-      for (const key of ['limits', 'levels', 'hardToChange', 'settleMinutes'] as const) {
+      for (const key of ['limits', 'levels', 'hardToChange', 'settleMinutes', 'analysedRange'] as const) {
         if (raw[key] !== undefined) {
           warnings.push(new InputError(`has no effect on a model parameter (only operating settings are set in the lab)`, { file, key: `${at}.${key}` }).describe());
         }
@@ -476,7 +510,16 @@ function checkStudyRules(data: StudyDocument, file: string): { study: CheckedStu
   const responses: Response[] = data.responses.map((raw, i) => {
     checkId(raw.id, `responses[${i}].id`, responseSeen, 'responses');
     responseSeen.set(raw.id, i);
-    return { id: raw.id, name: raw.name, unit: raw.unit, weight: raw.weight ?? 1 };
+    const response: Response = { id: raw.id, name: raw.name, unit: raw.unit, weight: raw.weight ?? 1 };
+    if (raw.spread !== undefined) response.spread = raw.spread;
+    if (raw.noise !== undefined) response.noise = raw.noise;
+    if (raw.smallestEffect !== undefined) response.smallestEffect = raw.smallestEffect;
+    if (raw.spread !== undefined && raw.smallestEffect !== undefined) {
+      warnings.push(
+        new InputError('is not used: spread is given, so the effects are predicted from the indices', { file, key: `responses[${i}].smallestEffect` }).describe(),
+      );
+    }
+    return response;
   });
 
   const policy: TierPolicy = { ...DEFAULT_POLICY, ...definedOnly(data.policy ?? {}) };
@@ -487,18 +530,29 @@ function checkStudyRules(data: StudyDocument, file: string): { study: CheckedStu
     fail('policy.critical', `critical (${policy.critical}) must be greater than moderate (${policy.moderate})`);
   }
 
-  const { levels: levelOverrides, ...designRest } = data.design ?? {};
+  const { levels: levelOverrides, precision: precisionOverrides, ...designRest } = data.design ?? {};
   const design: DesignSettings = {
     ...DEFAULT_DESIGN,
     ...definedOnly(designRest),
     levels: { ...DEFAULT_DESIGN.levels, ...definedOnly(levelOverrides ?? {}) },
+    precision: { ...DEFAULT_DESIGN.precision, ...definedOnly(precisionOverrides ?? {}) },
   };
-  if (Array.isArray(design.model)) {
-    design.model = [...design.model];
+  if (!(design.precision.alpha > 0 && design.precision.alpha <= 0.5)) {
+    fail('design.precision.alpha', `must lie above 0 and at most 0.5, not ${design.precision.alpha}`);
+  }
+  if (!(design.precision.power > design.precision.alpha && design.precision.power < 1)) {
+    fail('design.precision.power', `must lie above the test level ${design.precision.alpha} and below 1, not ${design.precision.power}`);
+  }
+  if (Array.isArray(design.potential)) design.potential = [...design.potential];
+  const termLists = [
+    ...(Array.isArray(design.model) ? [{ list: (design.model = [...design.model]), name: 'design.model' }] : []),
+    ...(Array.isArray(design.potential) ? [{ list: design.potential, name: 'design.potential' }] : []),
+  ];
+  for (const { list, name } of termLists) {
     const operating = factors.filter((factor) => factor.role === 'operating').map((factor) => factor.id);
     const modelOnly = factors.filter((factor) => factor.role === 'model').map((factor) => factor.id);
-    design.model.forEach((term, i) => {
-      const key = `design.model[${i}]`;
+    list.forEach((term, i) => {
+      const key = `${name}[${i}]`;
       const parameter = modelOnly.find((id) => term.split(/[*^\s]+/).includes(id));
       if (parameter !== undefined) fail(key, `term "${excerpt(term)}" uses ${parameter}, a model parameter; model terms use operating settings only`);
       try {

@@ -262,7 +262,7 @@ describe('tierplan plan refuses bad input with one line, exit 2 and nothing writ
 
 describe('tierplan plan refuses bad options with one line naming the option', () => {
   const cases: [string, string[], RegExp][] = [
-    ['fewer runs than parameters', ['--runs', '13'], /^tierplan: --runs 13: 13 fitting runs cannot estimate 14 model parameters/],
+    ['fewer runs than parameters', ['--runs', '11'], /^tierplan: --runs 11: 11 fitting runs cannot estimate 12 model parameters/],
     ['a criterion other than D or I', ['--criterion', 'A'], /--criterion must be D or I/],
     ['a fractional run count', ['--runs', '1.5'], /--runs must be a whole number/],
   ];

@@ -382,6 +382,48 @@ describe('response, policy, design, session and cost rules', () => {
     expectKeyError((study) => (study.constraints = 'temp < 50'), 'constraints', 'must be a list, not "temp < 50"'));
 });
 
+describe('precision keys', () => {
+  it('reads spread, noise, smallestEffect, analysedRange, design.precision, maxRuns and potential', async () => {
+    const { studyPath } = writeStudy((study) => {
+      study.responses[0] = { ...study.responses[0], spread: 1.5, noise: 0.2 };
+      study.responses[1] = { ...study.responses[1], smallestEffect: 2, noise: 0.5 };
+      study.factors[0].analysedRange = { low: 10, high: 70 };
+      study.design = { precision: { power: 0.9 }, maxRuns: 40, potential: ['temp^2'] };
+    });
+    const study = await loadStudy(studyPath);
+    expect(study.responses[0]).toMatchObject({ spread: 1.5, noise: 0.2 });
+    expect(study.responses[1]).toMatchObject({ smallestEffect: 2, noise: 0.5 });
+    expect(study.factors[0].analysedRange).toEqual({ low: 10, high: 70 });
+    expect(study.design.precision).toEqual({ power: 0.9, alpha: 0.05 });
+    expect(study.design.maxRuns).toBe(40);
+    expect(study.design.potential).toEqual(['temp^2']);
+  });
+  it('defaults: power 0.8, alpha 0.05, potential auto, no maxRuns', async () => {
+    const study = await loadStudy(writeStudy(() => {}).studyPath);
+    expect(study.design.precision).toEqual({ power: 0.8, alpha: 0.05 });
+    expect(study.design.potential).toBe('auto');
+    expect(study.design.maxRuns).toBeUndefined();
+  });
+  it('noise must be positive', () =>
+    expectKeyError((study) => (study.responses[0].noise = 0), 'responses[0].noise', 'must be greater than 0, not 0'));
+  it('power must lie above alpha and below 1', () =>
+    expectKeyError((study) => (study.design = { precision: { power: 1 } }), 'design.precision.power', 'must lie above the test level 0.05 and below 1, not 1'));
+  it('alpha must lie in (0, 0.5]', () =>
+    expectKeyError((study) => (study.design = { precision: { alpha: 0.6 } }), 'design.precision.alpha', 'must lie above 0 and at most 0.5, not 0.6'));
+  it('an unknown precision key', () =>
+    expectKeyError((study) => (study.design = { precision: { powr: 0.9 } }), 'design.precision.powr', 'unknown key "powr"; did you mean `power`?'));
+  it('analysedRange must be ordered', () =>
+    expectKeyError((study) => (study.factors[0].analysedRange = { low: 5, high: 5 }), 'factors[0].analysedRange.high', 'analysedRange.high (5) must be greater than analysedRange.low (5)'));
+  it('potential terms must name operating factors', () =>
+    expectKeyError((study) => (study.design = { potential: ['k_ref'] }), 'design.potential[0]', 'term "k_ref" uses k_ref, a model parameter; model terms use operating settings only'));
+  it('potential must be auto or a list', () =>
+    expectKeyError((study) => (study.design = { potential: 'none' }), 'design.potential', 'must be "auto" or a list of model terms such as [inlet_temp^3] ([] for none)'));
+  it('warns that smallestEffect is not used when spread is given', async () => {
+    const study = await loadStudy(writeStudy((s) => (s.responses[0] = { ...s.responses[0], spread: 1, smallestEffect: 2, noise: 0.1 })).studyPath);
+    expect(study.warnings.some((warning) => warning.includes('responses[0].smallestEffect: is not used'))).toBe(true);
+  });
+});
+
 describe('table errors reach the caller through loadStudy', () => {
   it('an interactions file that is missing', async () => {
     const { folder, studyPath } = writeStudy((study) => (study.interactions = 'pairs.csv'));

@@ -25,6 +25,8 @@ const REQUIRED: [string, (study: Study) => void][] = [
   ['factors[0].low', (s) => delete s.factors[0].low],
   ['factors[0].high', (s) => delete s.factors[0].high],
   ['factors[0].nominal', (s) => delete s.factors[0].nominal],
+  ['factors[0].analysedRange.low', (s) => { s.factors[0].analysedRange = { high: 210 }; }],
+  ['factors[0].analysedRange.high', (s) => { s.factors[0].analysedRange = { low: 150 }; }],
   ['factors[1].limits.low', (s) => delete s.factors[1].limits.low],
   ['factors[1].limits.high', (s) => delete s.factors[1].limits.high],
   ['responses[0].id', (s) => delete s.responses[0].id],

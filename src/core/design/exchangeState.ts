@@ -10,6 +10,10 @@
  *   d1 = d(x) − c·d(x,y), and trace change −g_y'Wg_y/(1+d(y)) + h'Wh/(1 − d1)
  *   (two Sherman–Morrison steps, Sherman & Morrison, 1950).
  *
+ * Prior information: a constant p × p matrix P may be added to X'X throughout (the
+ * potential-term prior of potentialPrior.ts, or later the information of runs already made);
+ * the updates are unchanged, because P does not depend on the design rows.
+ *
  * Singular designs: when X'X is singular the state works on X'X + ridge·I and on the
  * D-criterion whatever was asked, so exchanges first raise the rank (each missing dimension
  * costs ln ridge in the log-determinant); the ridge is dropped at the next refresh at which
@@ -40,7 +44,7 @@ export class ExchangeState {
   readonly points: Float64Array;
   readonly rows: Float64Array;
   readonly inverse: Float64Array;
-  /** ln det(X'X + ridge·I). */
+  /** ln det(X'X + P + ridge·I). */
   logDet = Number.NEGATIVE_INFINITY;
   /** trace((X'X + ridge·I)⁻¹ W), when W is given. */
   trace = Number.POSITIVE_INFINITY;
@@ -63,6 +67,7 @@ export class ExchangeState {
     initial: Float64Array,
     private readonly criterion: Criterion,
     private readonly moments: Float64Array | null,
+    private readonly prior: Float64Array | null = null,
   ) {
     this.k = model.factorIds.length;
     this.p = model.p;
@@ -94,6 +99,7 @@ export class ExchangeState {
   refresh(): void {
     const { p, N } = this;
     const M = crossProduct(this.rows, N, p);
+    if (this.prior) for (let i = 0; i < p * p; i++) M[i] += this.prior[i];
     let logDet = invertSymmetric(M, p, this.inverse, SINGULAR_PIVOT);
     this.ridge = 0;
     if (logDet === Number.NEGATIVE_INFINITY) {

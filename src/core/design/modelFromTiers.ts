@@ -9,8 +9,11 @@
  * Monte Carlo estimates"; Saltelli et al., 2008, *Global Sensitivity Analysis: The Primer*,
  * ch. 4). So:
  * - every varied factor gets a main effect;
- * - powers up to (levels − 1), capped at cubic for critical and quadratic for moderate
- *   factors (a factor varied only on request, though negligible, keeps its main effect);
+ * - powers up to (levels − 1), capped at quadratic for critical and moderate factors (a
+ *   factor varied only on request, though negligible, keeps its main effect); a critical
+ *   factor's cubic trend is a potential term instead (potentialTerms.ts), because as a
+ *   primary term its raw cubic column overlaps the linear one so much (VIF above 20 on
+ *   4 levels) that the main effect itself is seen with little power;
  * - a two-factor interaction for each pair of varied factors whose second-order index reaches
  *   the interaction threshold for some response, when a second-order table was given; without
  *   one, for each pair whose interaction shares (aggregated total − first order) both reach it.
@@ -49,7 +52,7 @@ export interface DeriveModelOptions {
 const TOLERANCE = 1e-12;
 
 /** Highest power a tier earns by default (before the level count caps it). */
-const POWER_CAP: Record<FactorTier['tier'], number> = { critical: 3, moderate: 2, negligible: 1 };
+const POWER_CAP: Record<FactorTier['tier'], number> = { critical: 2, moderate: 2, negligible: 1 };
 
 export function deriveModel(
   levels: FactorLevels[],
@@ -162,7 +165,7 @@ function fromTiers(
 }
 
 function capWord(tier: FactorTier['tier']): string {
-  return tier === 'critical' ? 'cubic' : tier === 'moderate' ? 'quadratic' : 'linear';
+  return tier === 'negligible' ? 'linear' : 'quadratic';
 }
 
 function fromPreset(preset: ModelPreset, varied: FactorLevels[], notes: string[]): ModelTerm[] {

@@ -68,3 +68,26 @@ export function modelMatrix(model: CompiledModel, points: readonly ArrayLike<num
 export function informationMatrix(model: CompiledModel, points: readonly ArrayLike<number>[]): Float64Array {
   return crossProduct(modelMatrix(model, points), points.length, model.p);
 }
+
+/** The model made of some of the terms (`columns`, in that order): the primary part of a model with potential terms. */
+export function subModel(model: CompiledModel, columns: readonly number[]): CompiledModel {
+  const k = model.factorIds.length;
+  const exponents = new Int32Array(columns.length * k);
+  const maxPower = new Int32Array(k);
+  columns.forEach((c, t) => {
+    for (let j = 0; j < k; j++) {
+      const e = model.exponents[c * k + j];
+      exponents[t * k + j] = e;
+      if (e > maxPower[j]) maxPower[j] = e;
+    }
+  });
+  return { factorIds: model.factorIds, p: columns.length, exponents, maxPower };
+}
+
+/** The rows and columns `columns` of a p × p row-major matrix (e.g. the moments of a sub-model). */
+export function subMatrix(matrix: ArrayLike<number>, p: number, columns: readonly number[]): Float64Array {
+  const q = columns.length;
+  const out = new Float64Array(q * q);
+  for (let a = 0; a < q; a++) for (let b = 0; b < q; b++) out[a * q + b] = matrix[columns[a] * p + columns[b]];
+  return out;
+}

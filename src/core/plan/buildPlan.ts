@@ -18,15 +18,20 @@ import { buildCandidateRegion } from '../region/candidateRegion.js';
 import { centrePoint } from '../design/centreRuns.js';
 import { chooseHoldoutRuns, defaultHoldoutCount } from '../design/holdoutRuns.js';
 import { settingsFor } from '../design/settings.js';
-import { checkSearchWork, findExactDesign } from '../design/exactDesign.js';
 import { boundForRegion } from '../design/continuousBound.js';
-import { defaultRunCount } from '../design/runCount.js';
+import { potentialTerms } from '../design/potentialTerms.js';
+import { potentialPrior } from '../design/potentialPrior.js';
+import { randomFeasiblePoint } from '../region/gridSampling.js';
 import { regionMoments } from '../evaluate/regionMoments.js';
-import { compileModel } from '../model/modelMatrix.js';
-import { termLabel } from '../model/modelTerm.js';
+import { compileModel, modelMatrix, subModel, type CompiledModel } from '../model/modelMatrix.js';
+import { INTERCEPT_LABEL, termLabel, type ModelTerm } from '../model/modelTerm.js';
+import { predictEffects } from '../precision/predictedEffects.js';
+import { sizeCampaign } from './campaignSize.js';
+import { xoroshiro128plus } from 'pure-rand/generator/xoroshiro128plus';
 import { scheduleRuns } from '../schedule/scheduleRuns.js';
 import { buildComparison } from '../compare/buildComparison.js';
 import type { FactorLevels, PlannedRun, RunPurpose } from '../design/designTypes.js';
+import type { CandidateRegion } from '../region/candidateRegion.js';
 import type { PlanDocument, PlanMetrics, PlanModel } from './planDocument.js';
 
 export interface BuildPlanOptions {
@@ -65,49 +70,51 @@ export function buildPlan(study: Study, options: BuildPlanOptions): PlanDocument
   const derived = deriveModel(levels, tiers, study.policy, design.model, { interactionTable: study.interactions.length > 0 });
   // A derived model grows with the interacting pairs; refuse it before any matrix is built.
   checkLimit('modelTerms', derived.terms.length, { key: 'design.model' }, 'model terms');
-  const model = compileModel(derived.terms, factorIds);
+  const region = buildCandidateRegion(study.factors, levels, study.constraints, { seed: design.seed });
+  const potential = potentialTerms({ levels, tiers, policy: study.policy, interactions: study.interactions, primary: derived.terms, spec: design.potential });
+  const guarded = guardedModel(derived.terms, potential.terms, factorIds, region, design.seed);
+  const { model, primaryColumns, prior } = guarded;
+  const primary = subModel(model, primaryColumns);
+  const primaryLabels = derived.terms.map((term) => termLabel(term, factorIds));
   const planModel: PlanModel = {
     intercept: true,
-    terms: derived.terms.filter((term) => Object.keys(term.powers).length > 0).map((term) => termLabel(term, factorIds)),
+    terms: primaryLabels.filter((label) => label !== INTERCEPT_LABEL),
     explained: derived.terms.map((term) => ({ term: termLabel(term, factorIds), reason: term.reason })),
     source: derived.source,
+    potential: guarded.potential.map((term) => termLabel(term, factorIds)),
+    potentialExplained: guarded.potential.map((term) => ({ term: termLabel(term, factorIds), reason: term.reason })),
   };
 
-  const region = buildCandidateRegion(study.factors, levels, study.constraints, { seed: design.seed });
-
-  const runCount =
-    design.runs === 'auto'
-      ? defaultRunCount(model.p, design.centreRuns)
-      : { runs: design.runs, note: `set by ${options.runsSetBy ?? 'the study (design.runs)'}` };
-  if (runCount.runs < model.p) {
-    throw new InputError(
-      `${runCount.runs} fitting runs cannot estimate ${model.p} model parameters; use at least ${model.p} or a smaller model`,
-      { key: 'design.runs' },
-    );
-  }
-
-  // Refuse a search past its work limit before the region moments and the search itself.
-  checkSearchWork(model, region, runCount.runs, design.starts);
+  const centre = centrePoint(region, levels, study.factors, { seed: design.seed });
+  const centrePoints = Array.from({ length: design.centreRuns }, () => centre.coded);
+  const effects = predictEffects({ ...study, levels });
   const moments = regionMoments(model, region, design.seed);
-  progress(`searching for a ${design.criterion}-optimal ${runCount.runs}-run plan (${design.starts} starts)`);
-  const exact = findExactDesign({
+  const sized = sizeCampaign({
     model,
+    primaryColumns,
+    primaryLabels,
+    priorInformation: prior,
     region,
-    runs: runCount.runs,
+    moments: moments.matrix,
     criterion: design.criterion,
     seed: design.seed,
     starts: design.starts,
-    moments: moments.matrix,
-    onProgress: options.onSearchProgress,
+    runs: design.runs,
+    maxRuns: design.maxRuns,
+    centrePoints,
+    effects,
+    target: design.precision,
+    runsSetBy: options.runsSetBy ?? 'the study (design.runs)',
+    onProgress: progress,
+    onSearchProgress: options.onSearchProgress,
   });
+  const exact = sized.exact;
   // Already in standard order (first factor slowest, ascending); the schedule randomises.
   const fitPoints = exact.points;
 
   progress('computing the continuous D-optimal bound');
-  const bound = boundForRegion(model, region, fitPoints, design.seed);
+  const bound = boundForRegion(primary, region, fitPoints, design.seed);
 
-  const centre = centrePoint(region, levels, study.factors, { seed: design.seed });
-  const centrePoints = Array.from({ length: design.centreRuns }, () => centre.coded);
   const holdoutCount = design.holdoutRuns === 'auto' ? defaultHoldoutCount(fitPoints.length) : design.holdoutRuns;
   const occupied = design.centreRuns > 0 ? [...fitPoints, centre.coded] : fitPoints;
   const holdoutPoints =
@@ -120,17 +127,18 @@ export function buildPlan(study: Study, options: BuildPlanOptions): PlanDocument
   ];
 
   const metrics: PlanMetrics = {
-    p: model.p,
+    p: primary.p,
     N: fitPoints.length,
     logDetPerRun: exact.logDetPerRun,
     dEfficiency: exact.dEfficiency,
     boundEfficiency: bound.efficiency,
-    boundNote: bound.note,
+    boundNote: `${bound.note}; fitting runs only, centre replicates excluded`,
     iCriterion: exact.iCriterion,
     criterion: design.criterion,
     seed: design.seed,
     starts: design.starts,
-    runsNote: runCount.note,
+    runsNote: `${sized.runsNote}; ${lackOfFit([...fitPoints, ...centrePoints], primary.p).note}`,
+    lackOfFit: lackOfFit([...fitPoints, ...centrePoints], primary.p),
   };
 
   const { warnings, ...studyEcho } = study;
@@ -146,7 +154,16 @@ export function buildPlan(study: Study, options: BuildPlanOptions): PlanDocument
     model: planModel,
     runs,
     metrics,
-    warnings: [...warnings, ...impliedStepNotes(study.factors), ...derived.notes, ...(centre.note ? [centre.note] : []), `I-criterion region moments: ${moments.method}`],
+    precision: sized.precision,
+    warnings: [
+      ...warnings,
+      ...impliedStepNotes(study.factors),
+      ...derived.notes,
+      ...potential.notes,
+      ...guarded.notes,
+      ...(centre.note ? [centre.note] : []),
+      `I-criterion region moments: ${moments.method}`,
+    ],
   };
 
   plan.schedule = scheduleRuns(plan, design.seed);
@@ -155,6 +172,65 @@ export function buildPlan(study: Study, options: BuildPlanOptions): PlanDocument
     plan.comparison = buildComparison(plan);
   }
   return plan;
+}
+
+/**
+ * Primary and potential terms compiled together (primary first), with the potential-term
+ * prior over the candidate set (the enumerated feasible grid, or a seeded sample of
+ * POTENTIAL_SAMPLE feasible points of a grid too large to list). A potential term the primary
+ * ones explain over the candidates cannot be guarded against and is dropped with a note.
+ */
+function guardedModel(
+  primaryTerms: ModelTerm[],
+  potentialTerms: ModelTerm[],
+  factorIds: string[],
+  region: CandidateRegion,
+  seed: number,
+): { model: CompiledModel; primaryColumns: number[]; prior: Float64Array | null; potential: ModelTerm[]; notes: string[] } {
+  const primaryColumns = primaryTerms.map((_, t) => t);
+  if (potentialTerms.length === 0) return { model: compileModel(primaryTerms, factorIds), primaryColumns, prior: null, potential: [], notes: [] };
+  const candidates = region.points ?? sampledCandidates(region, seed);
+  const notes: string[] = [];
+  let potential = potentialTerms;
+  for (;;) {
+    const model = compileModel([...primaryTerms, ...potential], factorIds);
+    const flags = Array.from({ length: model.p }, (_, t) => t >= primaryTerms.length);
+    const prior = potentialPrior(modelMatrix(model, candidates), candidates.length, model.p, flags);
+    if (prior.aliased.length === 0) return { model, primaryColumns, prior: prior.priorInformation, potential, notes };
+    const dropped = new Set(prior.aliased.map((c) => c - primaryTerms.length));
+    for (const t of dropped) {
+      notes.push(`potential term ${termLabel(potential[t], factorIds)} is dropped: over the feasible settings the primary terms already explain it`);
+    }
+    potential = potential.filter((_, t) => !dropped.has(t));
+    if (potential.length === 0) return { model: compileModel(primaryTerms, factorIds), primaryColumns, prior: null, potential: [], notes };
+  }
+}
+
+/** Feasible points of the potential-term candidate sample of a grid too large to list. */
+const POTENTIAL_SAMPLE = 4000;
+
+function sampledCandidates(region: CandidateRegion, seed: number): number[][] {
+  const rng = xoroshiro128plus(seed);
+  const point = new Float64Array(region.levels.length);
+  const points: number[][] = [];
+  for (let i = 0; i < POTENTIAL_SAMPLE && randomFeasiblePoint(region, rng, point); i++) points.push(Array.from(point));
+  return points;
+}
+
+/**
+ * Lack-of-fit and pure-error degrees of freedom of the fitted runs (fitting runs plus centre
+ * replicates): distinct points − p for lack of fit, runs − distinct points for pure error
+ * (Montgomery, 2017, "Design and Analysis of Experiments", 9th ed., §11.2).
+ */
+function lackOfFit(points: readonly number[][], p: number): NonNullable<PlanMetrics['lackOfFit']> {
+  const distinct = new Set(points.map((x) => x.map((value) => value.toPrecision(12)).join(','))).size;
+  const df = distinct - p;
+  const pureErrorDf = points.length - distinct;
+  const note =
+    `the ${points.length} fitted runs sit at ${distinct} distinct points: ${Math.max(df, 0)} degree${df === 1 ? '' : 's'} of freedom for lack of fit ` +
+    `and ${pureErrorDf} for pure error` +
+    (df > 0 && pureErrorDf > 0 ? ', so lack of fit can be tested' : pureErrorDf === 0 ? ' (no replicated point), so lack of fit cannot be tested' : ', so lack of fit cannot be tested');
+  return { distinctPoints: distinct, df: Math.max(df, 0), pureErrorDf, note };
 }
 
 function plannedRun(

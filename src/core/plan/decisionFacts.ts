@@ -25,7 +25,7 @@
  */
 import { DEFAULT_SESSION_HOURS, type Study } from '../study.js';
 import type { PlanDocument } from './planDocument.js';
-import type { FactorPrecision, InteractionPrecision, PrecisionBlock } from '../compare/precisionBlock.js';
+import type { FactorPrecision, InteractionPrecision, PlanPrecision as PrecisionBlock } from '../precision/precisionTypes.js';
 import type { ComparatorId, ComparatorRow, Comparison } from '../compare/comparisonTypes.js';
 import { campaignCost } from '../compare/campaignCost.js';
 import { sessionCountFor } from '../schedule/sessionPlan.js';

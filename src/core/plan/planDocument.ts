@@ -9,7 +9,7 @@ import type { TierResult } from '../sensitivity/tierTypes.js';
 import type { FactorLevels, PlannedRun } from '../design/designTypes.js';
 import type { Comparison } from '../compare/comparisonTypes.js';
 import type { Schedule } from '../schedule/scheduleTypes.js';
-import type { PrecisionBlock } from '../compare/precisionBlock.js';
+import type { PlanPrecision } from '../precision/precisionTypes.js';
 
 export interface PlanModel {
   /** Always true: the intercept is implied by the term syntax. */
@@ -20,6 +20,13 @@ export interface PlanModel {
   explained: { term: string; reason: string }[];
   /** How the term list was chosen: `tiers`, a preset name, or `explicit`. */
   source: 'tiers' | 'linear' | 'interactions' | 'quadratic' | 'explicit';
+  /**
+   * Potential terms (study syntax): guarded against by the Bayesian D-criterion
+   * (DuMouchel & Jones 1994) but not fitted; empty when there are none.
+   */
+  potential: string[];
+  /** Every potential term with the reason it is there (addition). */
+  potentialExplained?: { term: string; reason: string }[];
 }
 
 export interface PlanMetrics {
@@ -31,7 +38,7 @@ export interface PlanMetrics {
   logDetPerRun: number;
   /** Textbook D-efficiency 100·|X'X|^(1/p) / N, coded units. */
   dEfficiency: number;
-  /** 100 · (det M(exact) / det M(bound))^(1/p), relative to the approximate D-optimal design. */
+  /** 100 · (det M(exact) / det M(bound))^(1/p), relative to the approximate D-optimal design; fitting runs only (centre replicates excluded). */
   boundEfficiency: number | null;
   /** Why `boundEfficiency` is null, or how the bound was obtained. */
   boundNote: string;
@@ -40,8 +47,10 @@ export interface PlanMetrics {
   criterion: Criterion;
   seed: number;
   starts: number;
-  /** How N was chosen. */
+  /** How N was chosen, with the lack-of-fit and pure-error degrees of freedom. */
   runsNote: string;
+  /** Degrees of freedom of the fitted runs for lack of fit (distinct points − p) and pure error (runs − distinct points) (addition). */
+  lackOfFit?: { distinctPoints: number; df: number; pureErrorDf: number; note: string };
 }
 
 export interface PlanDocument {
@@ -59,13 +68,13 @@ export interface PlanDocument {
   model: PlanModel;
   runs: PlannedRun[];
   metrics: PlanMetrics;
+  /** Whether the plan sees every effect the sensitivity analysis predicts, and how N was reached. */
+  precision: PlanPrecision;
   warnings: string[];
   /** Filled by the comparison stage (`tierplan compare`). */
   comparison?: Comparison;
   /** Filled by the scheduling stage: randomised run order. */
   schedule?: Schedule;
-  /** What the plan can detect and how surely (see precisionBlock.ts); absent in plans made without it. */
-  precision?: PrecisionBlock;
   /** A revision made by `tierplan augment`: the plan it adds runs to. */
   parent?: { id: string; checksum: string };
 }

@@ -106,7 +106,7 @@ export function augmentPlan(parent: PlanDocument, analysis: AnalysisDocument, re
     checksum: '',
     createdAt: '',
     parent: { id: parent.planId, checksum: parent.checksum },
-    model: { intercept: true, terms: labels, explained, source: 'explicit' },
+    model: { intercept: true, terms: labels, explained, source: 'explicit', potential: [] },
     runs,
     metrics: {
       ...parent.metrics,

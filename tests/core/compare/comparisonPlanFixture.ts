@@ -82,7 +82,7 @@ export function planFixture(options: FixtureOptions): PlanDocument {
     study,
     tiers,
     levels,
-    model: { intercept: true, terms: options.terms, explained: [], source: 'explicit' },
+    model: { intercept: true, terms: options.terms, explained: [], source: 'explicit', potential: [] },
     runs,
     metrics: {
       p: options.terms.length + 1,
@@ -97,6 +97,7 @@ export function planFixture(options: FixtureOptions): PlanDocument {
       starts: 1,
       runsNote: '',
     },
+    precision: { power: 0.8, alpha: 0.05, met: false, basis: 'none', factors: [], interactions: [], weakest: null, runCurve: [], fixed: [] },
     warnings: [],
   };
 }
