@@ -82,7 +82,8 @@ describe('tierplan analyze on the invented sample results', () => {
     const plan = JSON.parse(readFileSync(planPath, 'utf8'));
     // The sheet itself: the run table after the first empty line.
     const text = readFileSync(csv, 'utf8').slice(1);
-    const rows = parse(text.slice(text.indexOf('\r\n\r\n') + 4)) as string[][];
+    // After the empty line: the column keys, then the header row, then the runs (runSheetCsv.ts).
+    const rows = (parse(text.slice(text.indexOf('\r\n\r\n') + 4)) as string[][]).slice(1);
     const header = rows[0];
     const runNo = header.indexOf('Run no.');
     const pointAt = header.indexOf('Point');
@@ -133,7 +134,7 @@ describe('tierplan analyze on the invented sample results', () => {
     const result = runCli(['analyze', join(other, 'plan.json'), xlsx, '--json']);
     expect(result.status).toBe(2);
     expect(result.stdout).toBe('');
-    expect(result.stderr).toMatch(/results\.xlsx, sheet Run sheet, row 2, column B: plan id TP-\w+ is not the plan id of this plan\.json/);
+    expect(result.stderr).toMatch(/results\.xlsx, sheet Run sheet, row 2, column C: plan id TP-\w+ is not the plan id of this plan\.json/);
   });
 });
 

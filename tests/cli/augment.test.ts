@@ -60,7 +60,8 @@ describe('tierplan augment', () => {
     expect(new SingularValueDecomposition(X).rank).toBe(revision.model.terms.length + 1);
     // The run sheet lists the added runs only, numbered after the parent's last run.
     const text = readFileSync(join(out, 'runsheet.csv'), 'utf8').slice(1);
-    const rows = parse(text.slice(text.indexOf('\r\n\r\n') + 4)) as string[][];
+    // After the empty line: the column keys, then the header row, then the runs (runSheetCsv.ts).
+    const rows = (parse(text.slice(text.indexOf('\r\n\r\n') + 4)) as string[][]).slice(1);
     expect(rows.slice(1).map((row) => row[rows[0].indexOf('Point')]).sort()).toEqual(['A01', 'A02', 'A03', 'A04']);
     expect(rows.slice(1).map((row) => Number(row[0])).sort((a, b) => a - b)).toEqual([1, 2, 3, 4].map((i) => parent.runs.length + i));
   });

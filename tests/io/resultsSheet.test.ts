@@ -71,7 +71,7 @@ describe('results read back from the CSV run sheet', () => {
   });
 
   it('refuses a changed set-point, naming its row and column', async () => {
-    const c = column('factor', 'inlet_temp');
+    const c = column('setPoint', 'inlet_temp');
     const error = await refusal(readResultsSheet(write('setpoint.csv', tampered(2, c, '182')), plan));
     // Line of the third run: header block, empty line, header row, two runs before it.
     expect(error.location.row).toBe(headerLine + 1 + 2 + 1);
