@@ -59,6 +59,8 @@ export interface Response {
   noise?: number;
   /** Smallest change across the studied range worth detecting (engineering units); used when `spread` is absent. */
   smallestEffect?: number;
+  /** Acceptable prediction error at the holdout runs, used by `analyze` for its verdict (engineering units). */
+  tolerance?: number;
 }
 
 /** One row of the first-order / total index table (long format). */

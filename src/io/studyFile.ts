@@ -128,6 +128,7 @@ const responseSchema = z.strictObject({
   weight: capped(z.number().positive(), 'numberMagnitude').optional().describe('relative weight under the weighted aggregate (default 1)'),
   spread: z.number().positive().optional().describe('standard deviation of the response over the analysed ranges, as the sensitivity analysis reports it'),
   noise: z.number().positive().optional().describe('standard deviation of one lab result (repeatability of process plus measurement)'),
+  tolerance: z.number().positive().optional().describe('acceptable prediction error at the holdout runs, for the verdict of analyze (response units)'),
   smallestEffect: z
     .number()
     .positive()
@@ -513,6 +514,7 @@ function checkStudyRules(data: StudyDocument, file: string): { study: CheckedStu
     const response: Response = { id: raw.id, name: raw.name, unit: raw.unit, weight: raw.weight ?? 1 };
     if (raw.spread !== undefined) response.spread = raw.spread;
     if (raw.noise !== undefined) response.noise = raw.noise;
+    if (raw.tolerance !== undefined) response.tolerance = raw.tolerance;
     if (raw.smallestEffect !== undefined) response.smallestEffect = raw.smallestEffect;
     if (raw.spread !== undefined && raw.smallestEffect !== undefined) {
       warnings.push(

@@ -94,8 +94,6 @@ export interface AnalysisDocument {
   warnings: string[];
 }
 
-/** Response keys the precision work adds to the study; read when present. */
-type ResponseTargets = Response & { noise?: number; tolerance?: number };
 
 /** Run extras that split-plot plans carry. */
 type StructuredRun = PlannedRun & { wholePlot?: number; session?: number };
@@ -134,7 +132,7 @@ export function analyzeCampaign(
   const byRunNumber = (a: AnalysisRun, b: AnalysisRun) => a.run - b.run;
 
   const responses: CampaignResponse[] = plan.study.responses.map((response) => {
-    const targets = response as ResponseTargets;
+    const targets = response;
     const planned = plan.runs as StructuredRun[];
     const runs = planned.filter((run) => run.purpose !== 'holdout').map((run) => analysisRun(run, response.id)).sort(byRunNumber);
     const holdouts = planned.filter((run) => run.purpose === 'holdout').map((run) => analysisRun(run, response.id)).sort(byRunNumber);
