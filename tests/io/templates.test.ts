@@ -185,8 +185,8 @@ describe('manager report', () => {
     const approval = html.slice(html.indexOf('id="approval"'), html.indexOf('</table>', html.indexOf('id="approval"')));
     for (const field of ['Name', 'Role', 'Date', 'Signature']) expect(approval).toContain(`<th>${field}</th>`);
     for (const role of ['Prepared by', 'Statistical review', 'Approved by']) expect(approval).toContain(`<td>${role}</td>`);
-    // Page 1 says plainly that precision is not judged without a noise figure.
-    expect(html).toContain('Precision not judged (no noise given)');
+    // Page 1 carries the precision block: met, short of the target, or plainly not judged without a noise figure.
+    expect(html).toMatch(/Every effect the sensitivity analysis predicts is detected|short of the \d+ % power target|Precision not judged \(no noise given\)/);
   });
 
   it('keeps method details out of page 1 and prints them in the appendix once', async () => {

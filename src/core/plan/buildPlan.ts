@@ -13,6 +13,7 @@ import { InputError } from '../inputError.js';
 import { aboveLimit, checkLimit, limitOf } from '../inputLimits.js';
 import { decideTiers } from '../sensitivity/decideTiers.js';
 import { impliedStepNotes, planLevels } from '../design/levels.js';
+import { checkRegionSupport } from '../region/regionSupport.js';
 import { deriveModel } from '../design/modelFromTiers.js';
 import { buildCandidateRegion } from '../region/candidateRegion.js';
 import { centrePoint } from '../design/centreRuns.js';
@@ -72,6 +73,10 @@ export function buildPlan(study: Study, options: BuildPlanOptions): PlanDocument
   checkLimit('modelTerms', derived.terms.length, { key: 'design.model' }, 'model terms');
   const region = buildCandidateRegion(study.factors, levels, study.constraints, { seed: design.seed });
   const potential = potentialTerms({ levels, tiers, policy: study.policy, interactions: study.interactions, primary: derived.terms, spec: design.potential });
+  // The potential terms enter the search's model too: the limit covers both.
+  checkLimit('modelTerms', derived.terms.length + potential.terms.length, { key: 'design.model' }, 'model terms');
+  // The potential terms are adjusted over the candidates, which must first support the primary model.
+  checkRegionSupport(compileModel(derived.terms, factorIds), region);
   const guarded = guardedModel(derived.terms, potential.terms, factorIds, region, design.seed);
   const { model, primaryColumns, prior } = guarded;
   const primary = subModel(model, primaryColumns);
