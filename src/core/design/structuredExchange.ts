@@ -1,0 +1,522 @@
+/**
+ * Exact D-optimal design search for a campaign with structure: runs in whole plots that share
+ * the setting of the hard-to-change factors, whole plots in sessions with fixed effects, runs
+ * whose settings are already fixed (centre replicates, runs already done), and an optional
+ * prior information matrix (potential terms, or the information of earlier runs).
+ *
+ * Criterion: ln det(A), A = X'V⁻¹X adjusted for the session effects, plus the prior
+ * (glsInformation.ts gives the closed forms and the sources). With one whole plot per run,
+ * η = 0 and one session, A = X'X and the search is ordinary coordinate exchange.
+ *
+ * Method: coordinate exchange with two kinds of move (Jones & Goos, 2007, "A
+ * candidate-set-free algorithm for generating D-optimal split-plot designs", Applied
+ * Statistics 56, 347–364): a whole-plot move sets one hard-to-change factor to another level
+ * for every run of a whole plot; a within-plot move sets one factor of one run (any factor
+ * when the run is alone in its whole plot). A within-plot move changes one row f_x → f_y, its
+ * whole-plot sum s and its session sum a, so A changes by U C U' with U = [f_x, f_y, s, a] and
+ * a 4 × 4 matrix C written out below; the determinant ratio is det(I + C U'A⁻¹U) (the matrix
+ * determinant lemma; Harville, 1997, "Matrix Algebra From a Statistician's Perspective",
+ * §18.1), O(p·t) per trial with t the terms that contain the factor. A whole-plot move is
+ * scored from scratch (A plus its change, Cholesky), O(n_w p² + p³), and such moves are few.
+ * A⁻¹ is recomputed from scratch after every accepted move, so the updates never drift.
+ * Starts: random feasible settings with the hard-to-change ones shared inside each whole plot.
+ *
+ * Singular starts: A + ridge·I is searched until A itself is nonsingular, as in the
+ * unstructured search (exchangeState.ts).
+ */
+import { xoroshiro128plus } from 'pure-rand/generator/xoroshiro128plus';
+import { uniformInt } from 'pure-rand/distribution/uniformInt';
+import type { RandomGenerator } from 'pure-rand/types/RandomGenerator';
+import { InputError } from '../inputError.js';
+import { expandInto, termValue, type CompiledModel } from '../model/modelMatrix.js';
+import { invertSymmetric, choleskyFactor, choleskyLogDeterminant } from '../evaluate/cholesky.js';
+import type { ErrorStructure } from '../model/glsInformation.js';
+import { wholePlotSizes } from '../model/glsInformation.js';
+import type { CandidateRegion } from './designTypes.js';
+import { randomFeasiblePoint } from './gridSampling.js';
+
+const RIDGE = 1e-4;
+const SINGULAR_PIVOT = 1e-10;
+const IMPROVEMENT = 1e-9;
+const MAX_PASSES = 200;
+/** Draws of the easy-to-change settings of a run before it copies its whole plot's first run. */
+const WITHIN_ATTEMPTS = 50;
+
+export interface StructuredSearchRequest {
+  model: CompiledModel;
+  region: CandidateRegion;
+  /** Whole plots and sessions of the runs in the model, and η. */
+  structure: ErrorStructure;
+  /** Per run: its fixed coded point, or null when the search chooses it. */
+  fixed: (readonly number[] | null)[];
+  /** Per design factor: true when it is hard to change (shared inside a whole plot). */
+  hard: readonly boolean[];
+  /** Added to the adjusted information (size × size, see `informationSize`); optional. */
+  prior?: Float64Array;
+  seed: number;
+  starts: number;
+  /** A first start to try before the random ones (N × k coded, whole plots respected). */
+  warmStart?: Float64Array;
+  onProgress?: (done: number, total: number) => void;
+}
+
+export interface StructuredSearchResult {
+  /** One coded point per run, in the order of `fixed`. */
+  points: number[][];
+  /** ln det(A) of the best start (A with the prior, adjusted for sessions). */
+  logDet: number;
+  /** ln det(A) reached by each start, in start order (−Infinity when left singular). */
+  perStart: number[];
+  /** Size of A: p, or p − 1 when the sessions absorb the intercept. */
+  size: number;
+  passes: number;
+}
+
+/** Size of the adjusted information of a model under a structure. */
+export function informationSize(p: number, structure: ErrorStructure): number {
+  return structure.sessions > 1 ? p - 1 : p;
+}
+
+export function findStructuredDesign(request: StructuredSearchRequest): StructuredSearchResult {
+  const { model, region, structure, fixed, hard, seed, starts } = request;
+  const k = model.factorIds.length;
+  const N = fixed.length;
+  if (structure.wholePlotOf.length !== N) throw new Error('structured search: one whole plot per run is needed');
+  const plots = plotMembers(structure);
+  for (const members of plots) {
+    const kinds = new Set(members.map((i) => fixed[i] === null));
+    if (kinds.size > 1) throw new Error('structured search: a whole plot mixes fixed and free runs');
+  }
+  const stream = xoroshiro128plus(seed);
+  const perStart: number[] = [];
+  let best: { points: Float64Array; logDet: number } | null = null;
+  let passes = 0;
+  const total = starts + (request.warmStart ? 1 : 0);
+  for (let s = 0; s < total; s++) {
+    let initial: Float64Array;
+    if (s === 0 && request.warmStart) {
+      initial = Float64Array.from(request.warmStart);
+    } else {
+      const rng = stream.clone();
+      stream.jump();
+      initial = randomStart(region, fixed, plots, hard, k, rng);
+    }
+    const state = new StructuredState(model, region, structure, plots, fixed, hard, initial, request.prior ?? null);
+    passes += state.improve();
+    const logDet = state.ridge > 0 ? Number.NEGATIVE_INFINITY : state.logDet;
+    perStart.push(logDet);
+    if (best === null || logDet > best.logDet) best = { points: Float64Array.from(state.points), logDet };
+    request.onProgress?.(s + 1, total);
+  }
+  const chosen = best as { points: Float64Array; logDet: number };
+  if (chosen.logDet === Number.NEGATIVE_INFINITY) {
+    throw new InputError(
+      `the whole plots and sessions cannot support the model: every one of ${total} searches left terms confounded with the whole plots or sessions ` +
+        '(too few whole plots for the hard-to-change terms, or too few runs per session); use more whole plots or runs, or a smaller model',
+      { key: 'design.wholePlots' },
+    );
+  }
+  const points: number[][] = [];
+  for (let i = 0; i < N; i++) points.push(Array.from(chosen.points.subarray(i * k, (i + 1) * k)));
+  return { points, logDet: chosen.logDet, perStart, size: informationSize(model.p, structure), passes };
+}
+
+function plotMembers(structure: ErrorStructure): number[][] {
+  const plots: number[][] = Array.from({ length: structure.wholePlots }, () => []);
+  structure.wholePlotOf.forEach((w, i) => plots[w].push(i));
+  return plots;
+}
+
+function randomStart(
+  region: CandidateRegion,
+  fixed: (readonly number[] | null)[],
+  plots: number[][],
+  hard: readonly boolean[],
+  k: number,
+  rng: RandomGenerator,
+): Float64Array {
+  const points = new Float64Array(fixed.length * k);
+  const point = new Float64Array(k);
+  const trial = new Float64Array(k);
+  for (const members of plots) {
+    if (fixed[members[0]] !== null) {
+      for (const i of members) points.set(fixed[i] as readonly number[], i * k);
+      continue;
+    }
+    if (!randomFeasiblePoint(region, rng, point)) {
+      throw new InputError('no feasible setting was found in the candidate region; check the constraints and equipment limits', { key: 'constraints' });
+    }
+    points.set(point, members[0] * k);
+    for (let r = 1; r < members.length; r++) {
+      let placed = false;
+      for (let attempt = 0; attempt < WITHIN_ATTEMPTS && !placed; attempt++) {
+        for (let j = 0; j < k; j++) trial[j] = hard[j] ? point[j] : region.levels[j][uniformInt(rng, 0, region.levels[j].length - 1)];
+        placed = region.isFeasible(trial);
+      }
+      points.set(placed ? trial : point, members[r] * k);
+    }
+  }
+  return points;
+}
+
+/** The design being improved: points, reduced model rows, sums per whole plot and session, A and A⁻¹. */
+class StructuredState {
+  readonly k: number;
+  readonly p: number;
+  /** Width of a reduced row: p, or p − 1 without the intercept when sessions absorb it. */
+  readonly q: number;
+  readonly from: number;
+  readonly N: number;
+  readonly points: Float64Array;
+  readonly rows: Float64Array;
+  readonly plotSums: Float64Array;
+  readonly sessionSums: Float64Array;
+  readonly A: Float64Array;
+  readonly inverse: Float64Array;
+  logDet = Number.NEGATIVE_INFINITY;
+  ridge = 0;
+
+  private readonly c: Float64Array;
+  private readonly g: Float64Array;
+  private readonly d: Float64Array;
+  private readonly full: Float64Array;
+  private readonly changedTerms: Int32Array[];
+
+  constructor(
+    private readonly model: CompiledModel,
+    private readonly region: CandidateRegion,
+    private readonly structure: ErrorStructure,
+    private readonly plots: number[][],
+    private readonly fixed: (readonly number[] | null)[],
+    private readonly hard: readonly boolean[],
+    initial: Float64Array,
+    private readonly prior: Float64Array | null,
+  ) {
+    this.k = model.factorIds.length;
+    this.p = model.p;
+    this.from = structure.sessions > 1 ? 1 : 0;
+    this.q = this.p - this.from;
+    this.N = fixed.length;
+    this.points = Float64Array.from(initial);
+    this.rows = new Float64Array(this.N * this.q);
+    this.plotSums = new Float64Array(structure.wholePlots * this.q);
+    this.sessionSums = new Float64Array(structure.sessions * this.q);
+    this.A = new Float64Array(this.q * this.q);
+    this.inverse = new Float64Array(this.q * this.q);
+    this.full = new Float64Array(this.p);
+    const sizes = wholePlotSizes(structure);
+    const eta = structure.varianceRatio;
+    this.c = Float64Array.from(sizes, (n) => eta / (1 + eta * n));
+    this.g = Float64Array.from(sizes, (n) => 1 / (1 + eta * n));
+    this.d = new Float64Array(structure.sessions);
+    sizes.forEach((n, w) => {
+      this.d[structure.sessionOfWholePlot[w]] += n * this.g[w];
+    });
+    this.changedTerms = Array.from({ length: this.k }, (_, j) => {
+      const terms: number[] = [];
+      for (let t = this.from; t < this.p; t++) if (model.exponents[t * this.k + j] !== 0) terms.push(t - this.from);
+      return Int32Array.from(terms);
+    });
+    for (let i = 0; i < this.N; i++) this.expandRow(this.points.subarray(i * this.k, (i + 1) * this.k), this.rows.subarray(i * this.q, (i + 1) * this.q));
+    this.refresh();
+  }
+
+  private expandRow(x: ArrayLike<number>, out: Float64Array): void {
+    expandInto(this.model, x, this.full);
+    for (let a = 0; a < this.q; a++) out[a] = this.full[a + this.from];
+  }
+
+  /** A from the rows, its inverse and log-determinant, and the ridge decision. */
+  refresh(): void {
+    const { q, N, structure } = this;
+    this.plotSums.fill(0);
+    this.sessionSums.fill(0);
+    for (let i = 0; i < N; i++) {
+      const w = structure.wholePlotOf[i];
+      for (let a = 0; a < q; a++) this.plotSums[w * q + a] += this.rows[i * q + a];
+    }
+    for (let w = 0; w < structure.wholePlots; w++) {
+      const b = structure.sessionOfWholePlot[w];
+      for (let a = 0; a < q; a++) this.sessionSums[b * q + a] += this.g[w] * this.plotSums[w * q + a];
+    }
+    this.buildInformation(this.A, this.rows, this.plotSums, this.sessionSums);
+    const M = Float64Array.from(this.A);
+    let logDet = invertSymmetric(M, q, this.inverse, SINGULAR_PIVOT);
+    this.ridge = 0;
+    if (logDet === Number.NEGATIVE_INFINITY) {
+      this.ridge = RIDGE * Math.max(N, 1);
+      for (let a = 0; a < q; a++) M[a * q + a] += this.ridge;
+      logDet = invertSymmetric(M, q, this.inverse, SINGULAR_PIVOT);
+    }
+    this.logDet = logDet;
+  }
+
+  private buildInformation(out: Float64Array, rows: Float64Array, plotSums: Float64Array, sessionSums: Float64Array): void {
+    const { q, N, structure } = this;
+    out.fill(0);
+    for (let i = 0; i < N; i++) addOuter(out, q, rows, i * q, 1);
+    for (let w = 0; w < structure.wholePlots; w++) if (this.c[w] !== 0) addOuter(out, q, plotSums, w * q, -this.c[w]);
+    if (this.from === 1) for (let b = 0; b < structure.sessions; b++) if (this.d[b] > 0) addOuter(out, q, sessionSums, b * q, -1 / this.d[b]);
+    if (this.prior) for (let a = 0; a < q * q; a++) out[a] += this.prior[a];
+  }
+
+  /** Passes until a full pass changes nothing; returns the number of passes. */
+  improve(): number {
+    for (let pass = 1; pass <= MAX_PASSES; pass++) {
+      const ridgeBefore = this.ridge;
+      let moved = 0;
+      for (let w = 0; w < this.plots.length; w++) {
+        const members = this.plots[w];
+        if (this.fixed[members[0]] !== null) continue;
+        if (members.length > 1) moved += this.wholePlotMoves(w);
+        for (const i of members) moved += this.withinMoves(i, members.length === 1);
+      }
+      this.refresh();
+      if (moved === 0 && ridgeBefore === this.ridge) return pass;
+    }
+    return MAX_PASSES;
+  }
+
+  /** Tries every other level of each hard-to-change factor for whole plot w; returns 1 when one is taken. */
+  private wholePlotMoves(w: number): number {
+    const { k, q } = this;
+    const members = this.plots[w];
+    const trialPoints = new Float64Array(members.length * k);
+    const trialRows = new Float64Array(members.length * q);
+    const trialA = new Float64Array(q * q);
+    let moved = 0;
+    for (let j = 0; j < k; j++) {
+      if (!this.hard[j]) continue;
+      const current = this.points[members[0] * k + j];
+      let bestLogDet = this.logDet;
+      let bestLevel = current;
+      for (const level of this.region.levels[j]) {
+        if (level === current) continue;
+        let feasible = true;
+        members.forEach((i, r) => {
+          for (let m = 0; m < k; m++) trialPoints[r * k + m] = m === j ? level : this.points[i * k + m];
+          if (feasible && !this.region.isFeasible(trialPoints.subarray(r * k, (r + 1) * k))) feasible = false;
+        });
+        if (!feasible) continue;
+        const logDet = this.trialLogDet(members, trialPoints, trialRows, trialA);
+        if (logDet > bestLogDet + IMPROVEMENT * Math.max(1, Math.abs(bestLogDet))) {
+          bestLogDet = logDet;
+          bestLevel = level;
+        }
+      }
+      if (bestLevel !== current) {
+        for (const i of members) {
+          this.points[i * k + j] = bestLevel;
+          this.expandRow(this.points.subarray(i * k, (i + 1) * k), this.rows.subarray(i * q, (i + 1) * q));
+        }
+        this.refresh();
+        moved = 1;
+      }
+    }
+    return moved;
+  }
+
+  /** ln det of A (with the current ridge) when the runs `members` take the points `trialPoints`. */
+  private trialLogDet(members: number[], trialPoints: Float64Array, trialRows: Float64Array, trialA: Float64Array): number {
+    const { q, k } = this;
+    const rows = Float64Array.from(this.rows);
+    members.forEach((i, r) => {
+      this.expandRow(trialPoints.subarray(r * k, (r + 1) * k), trialRows.subarray(r * q, (r + 1) * q));
+      rows.set(trialRows.subarray(r * q, (r + 1) * q), i * q);
+    });
+    const plotSums = new Float64Array(this.plotSums.length);
+    const sessionSums = new Float64Array(this.sessionSums.length);
+    const { structure } = this;
+    for (let i = 0; i < this.N; i++) {
+      const w = structure.wholePlotOf[i];
+      for (let a = 0; a < q; a++) plotSums[w * q + a] += rows[i * q + a];
+    }
+    for (let w = 0; w < structure.wholePlots; w++) {
+      const b = structure.sessionOfWholePlot[w];
+      for (let a = 0; a < q; a++) sessionSums[b * q + a] += this.g[w] * plotSums[w * q + a];
+    }
+    this.buildInformation(trialA, rows, plotSums, sessionSums);
+    for (let a = 0; a < q; a++) trialA[a * q + a] += this.ridge;
+    const L = choleskyFactor(trialA, q, SINGULAR_PIVOT);
+    return L ? choleskyLogDeterminant(L, q) : Number.NEGATIVE_INFINITY;
+  }
+
+  /**
+   * Tries every other level of each factor of run i (only the easy-to-change ones unless the
+   * run is alone in its whole plot); takes the best improving one per factor.
+   */
+  private withinMoves(i: number, alone: boolean): number {
+    const { k, q, structure } = this;
+    const w = structure.wholePlotOf[i];
+    const b = structure.sessionOfWholePlot[w];
+    const cw = this.c[w];
+    const hw = this.from === 1 ? this.g[w] / this.d[b] : 0;
+    const ew = this.from === 1 ? (this.g[w] * this.g[w]) / this.d[b] : 0;
+    const trial = new Float64Array(k);
+    const fy = new Float64Array(q);
+    const hx = new Float64Array(q);
+    const hs = new Float64Array(q);
+    const ha = new Float64Array(q);
+    const hy = new Float64Array(q);
+    const G = new Float64Array(16);
+    const C = new Float64Array(16);
+    const IM = new Float64Array(16);
+    let moved = 0;
+    for (let j = 0; j < k; j++) {
+      if (this.hard[j] && !alone) continue;
+      const fx = this.rows.subarray(i * q, (i + 1) * q);
+      const s = this.plotSums.subarray(w * q, (w + 1) * q);
+      const a = this.sessionSums.subarray(b * q, (b + 1) * q);
+      multiply(this.inverse, q, fx, hx);
+      multiply(this.inverse, q, s, hs);
+      multiply(this.inverse, q, a, ha);
+      const xx = dot(fx, hx, q);
+      const xs = dot(fx, hs, q);
+      const xa = dot(fx, ha, q);
+      const ss = dot(s, hs, q);
+      const sa = dot(s, ha, q);
+      const aa = dot(a, ha, q);
+      for (let m = 0; m < k; m++) trial[m] = this.points[i * k + m];
+      const current = trial[j];
+      const changed = this.changedTerms[j];
+      let bestRatio = 1 + IMPROVEMENT;
+      let bestLevel = current;
+      for (const level of this.region.levels[j]) {
+        if (level === current) continue;
+        trial[j] = level;
+        if (!this.region.isFeasible(trial)) continue;
+        fy.set(fx);
+        hy.set(hx);
+        for (let m = 0; m < changed.length; m++) {
+          const t = changed[m];
+          const value = termValue(this.model, t + this.from, trial);
+          const delta = value - fx[t];
+          fy[t] = value;
+          if (delta === 0) continue;
+          const base = t * q;
+          for (let r = 0; r < q; r++) hy[r] += this.inverse[base + r] * delta;
+        }
+        const yy = dot(fy, hy, q);
+        const xy = dot(fx, hy, q);
+        const sy = dot(s, hy, q);
+        const ay = dot(a, hy, q);
+        // U = [f_x, f_y, s, a]; G = U'A⁻¹U.
+        G.set([xx, xy, xs, xa, xy, yy, sy, ay, xs, sy, ss, sa, xa, ay, sa, aa]);
+        const ratio = withinPlotRatio(G, cw, hw, ew, C, IM);
+        if (ratio > bestRatio) {
+          bestRatio = ratio;
+          bestLevel = level;
+        }
+      }
+      if (bestLevel !== current) {
+        this.points[i * k + j] = bestLevel;
+        this.expandRow(this.points.subarray(i * k, (i + 1) * k), this.rows.subarray(i * q, (i + 1) * q));
+        this.refresh();
+        moved++;
+      }
+    }
+    return moved;
+  }
+}
+
+/**
+ * det A_new / det A for a within-plot move, from G = U'A⁻¹U (4 × 4, U = [f_x, f_y, s, a]) and
+ * the coefficients c = c_w, h = g_w/d_b, e = g_w²/d_b (h = e = 0 with a single session).
+ * `C` and `work` are 16-long scratch arrays.
+ */
+export function withinPlotRatio(G: Float64Array, c: number, h: number, e: number, C = new Float64Array(16), work = new Float64Array(16)): number {
+  fillChange(C, c, h, e);
+  return determinantOfIdentityPlus(C, G, work);
+}
+
+/**
+ * C of the within-plot change A_new − A = U C U', U = [f_x, f_y, s, a], δ = f_y − f_x:
+ * f_y f_y' − f_x f_x' − c[(s + δ)(s + δ)' − s s'] − (1/d)[(a + gδ)(a + gδ)' − a a'],
+ * with h = g/d and e = g²/d (c, g, d as in glsInformation.ts). Index order x, y, s, a.
+ */
+function fillChange(C: Float64Array, c: number, h: number, e: number): void {
+  const X = 0;
+  const Y = 1;
+  const S = 2;
+  const A = 3;
+  C.fill(0);
+  const add = (r: number, col: number, value: number) => {
+    C[r * 4 + col] += value;
+  };
+  add(Y, Y, 1);
+  add(X, X, -1);
+  // −c (s δ' + δ s' + δ δ')
+  add(S, Y, -c);
+  add(Y, S, -c);
+  add(S, X, c);
+  add(X, S, c);
+  add(Y, Y, -c);
+  add(X, X, -c);
+  add(X, Y, c);
+  add(Y, X, c);
+  // −(g/d)(a δ' + δ a') − (g²/d) δ δ'
+  add(A, Y, -h);
+  add(Y, A, -h);
+  add(A, X, h);
+  add(X, A, h);
+  add(Y, Y, -e);
+  add(X, X, -e);
+  add(X, Y, e);
+  add(Y, X, e);
+}
+
+/** det(I + C G) for 4 × 4 row-major C and G (Gaussian elimination with partial pivoting). */
+function determinantOfIdentityPlus(C: Float64Array, G: Float64Array, work: Float64Array): number {
+  for (let r = 0; r < 4; r++) {
+    for (let col = 0; col < 4; col++) {
+      let sum = r === col ? 1 : 0;
+      for (let m = 0; m < 4; m++) sum += C[r * 4 + m] * G[m * 4 + col];
+      work[r * 4 + col] = sum;
+    }
+  }
+  let det = 1;
+  for (let col = 0; col < 4; col++) {
+    let pivot = col;
+    for (let r = col + 1; r < 4; r++) if (Math.abs(work[r * 4 + col]) > Math.abs(work[pivot * 4 + col])) pivot = r;
+    const value = work[pivot * 4 + col];
+    if (value === 0) return 0;
+    if (pivot !== col) {
+      for (let m = 0; m < 4; m++) {
+        const tmp = work[col * 4 + m];
+        work[col * 4 + m] = work[pivot * 4 + m];
+        work[pivot * 4 + m] = tmp;
+      }
+      det = -det;
+    }
+    det *= value;
+    for (let r = col + 1; r < 4; r++) {
+      const factor = work[r * 4 + col] / value;
+      if (factor === 0) continue;
+      for (let m = col; m < 4; m++) work[r * 4 + m] -= factor * work[col * 4 + m];
+    }
+  }
+  return det;
+}
+
+function addOuter(M: Float64Array, width: number, source: Float64Array, offset: number, scale: number): void {
+  for (let a = 0; a < width; a++) {
+    const va = scale * source[offset + a];
+    if (va === 0) continue;
+    for (let b = 0; b < width; b++) M[a * width + b] += va * source[offset + b];
+  }
+}
+
+function multiply(A: Float64Array, q: number, x: ArrayLike<number>, out: Float64Array): void {
+  for (let a = 0; a < q; a++) {
+    let sum = 0;
+    const base = a * q;
+    for (let b = 0; b < q; b++) sum += A[base + b] * x[b];
+    out[a] = sum;
+  }
+}
+
+function dot(x: ArrayLike<number>, y: ArrayLike<number>, q: number): number {
+  let sum = 0;
+  for (let a = 0; a < q; a++) sum += x[a] * y[a];
+  return sum;
+}
