@@ -24,16 +24,15 @@
  * Singular starts: A + ridge·I is searched until A itself is nonsingular, as in the
  * unstructured search (exchangeState.ts).
  */
-import { xoroshiro128plus } from 'pure-rand/generator/xoroshiro128plus';
 import { uniformInt } from 'pure-rand/distribution/uniformInt';
-import type { RandomGenerator } from 'pure-rand/types/RandomGenerator';
 import { InputError } from '../inputError.js';
+import { createRandom, type RandomGenerator } from '../random.js';
 import { expandInto, termValue, type CompiledModel } from '../model/modelMatrix.js';
-import { invertSymmetric, choleskyFactor, choleskyLogDeterminant } from '../evaluate/cholesky.js';
-import type { ErrorStructure } from '../model/glsInformation.js';
-import { wholePlotSizes } from '../model/glsInformation.js';
-import type { CandidateRegion } from './designTypes.js';
-import { randomFeasiblePoint } from './gridSampling.js';
+import { wholePlotSizes, type ErrorStructure } from '../model/glsInformation.js';
+import { choleskyFactor, choleskyLogDeterminant, invertSymmetric } from '../linalg/cholesky.js';
+import { addScaledOuter, dot, multiplyInto } from '../linalg/symmetricKernels.js';
+import type { CandidateRegion } from '../region/candidateRegion.js';
+import { randomFeasiblePoint } from '../region/gridSampling.js';
 
 const RIDGE = 1e-4;
 const SINGULAR_PIVOT = 1e-10;
@@ -41,6 +40,8 @@ const IMPROVEMENT = 1e-9;
 const MAX_PASSES = 200;
 /** Draws of the easy-to-change settings of a run before it copies its whole plot's first run. */
 const WITHIN_ATTEMPTS = 50;
+/** Largest N·n·p² (multiply-adds per point-exchange pass) for which the point exchange is run. */
+const POINT_EXCHANGE_BUDGET = 2e7;
 
 export interface StructuredSearchRequest {
   model: CompiledModel;
@@ -87,7 +88,8 @@ export function findStructuredDesign(request: StructuredSearchRequest): Structur
     const kinds = new Set(members.map((i) => fixed[i] === null));
     if (kinds.size > 1) throw new Error('structured search: a whole plot mixes fixed and free runs');
   }
-  const stream = xoroshiro128plus(seed);
+  const stream = createRandom(seed);
+  const candidates = candidateRows(model, region, structure, N);
   const perStart: number[] = [];
   let best: { points: Float64Array; logDet: number } | null = null;
   let passes = 0;
@@ -101,7 +103,7 @@ export function findStructuredDesign(request: StructuredSearchRequest): Structur
       stream.jump();
       initial = randomStart(region, fixed, plots, hard, k, rng);
     }
-    const state = new StructuredState(model, region, structure, plots, fixed, hard, initial, request.prior ?? null);
+    const state = new StructuredState(model, region, structure, plots, fixed, hard, initial, request.prior ?? null, candidates);
     passes += state.improve();
     const logDet = state.ridge > 0 ? Number.NEGATIVE_INFINITY : state.logDet;
     perStart.push(logDet);
@@ -125,6 +127,59 @@ function plotMembers(structure: ErrorStructure): number[][] {
   const plots: number[][] = Array.from({ length: structure.wholePlots }, () => []);
   structure.wholePlotOf.forEach((w, i) => plots[w].push(i));
   return plots;
+}
+
+/** The enumerated feasible grid points and their reduced model rows, when the budget allows a point exchange. */
+function candidateRows(model: CompiledModel, region: CandidateRegion, structure: ErrorStructure, N: number): Candidates | null {
+  if (region.points === null) return null;
+  const count = region.points.length;
+  const q = informationSize(model.p, structure);
+  if (N * count * q * q > POINT_EXCHANGE_BUDGET) return null;
+  const k = model.factorIds.length;
+  const from = model.p - q;
+  const points = new Float64Array(count * k);
+  const rows = new Float64Array(count * q);
+  const full = new Float64Array(model.p);
+  region.points.forEach((point, c) => {
+    points.set(point, c * k);
+    expandInto(model, point, full);
+    rows.set(full.subarray(from), c * q);
+  });
+  return { count, points, rows };
+}
+
+interface Candidates {
+  count: number;
+  /** count × k coded points. */
+  points: Float64Array;
+  /** count × q reduced model rows. */
+  rows: Float64Array;
+}
+
+/** Scratch and prepared quantities of the run whose trials are being scored. */
+interface PreparedRun {
+  run: number;
+  fx: Float64Array;
+  s: Float64Array;
+  a: Float64Array;
+  hx: Float64Array;
+  hs: Float64Array;
+  ha: Float64Array;
+  hy: Float64Array;
+  fy: Float64Array;
+  trial: Float64Array;
+  xx: number;
+  xs: number;
+  xa: number;
+  ss: number;
+  sa: number;
+  aa: number;
+  c: number;
+  h: number;
+  e: number;
+  G: Float64Array;
+  C: Float64Array;
+  work: Float64Array;
 }
 
 function randomStart(
@@ -181,6 +236,12 @@ class StructuredState {
   private readonly d: Float64Array;
   private readonly full: Float64Array;
   private readonly changedTerms: Int32Array[];
+  private readonly prepared: PreparedRun;
+  /** Scratch of the whole-plot trials. */
+  private readonly trialRows: Float64Array;
+  private readonly trialPlotSums: Float64Array;
+  private readonly trialSessionSums: Float64Array;
+  private readonly trialA: Float64Array;
 
   constructor(
     private readonly model: CompiledModel,
@@ -191,6 +252,7 @@ class StructuredState {
     private readonly hard: readonly boolean[],
     initial: Float64Array,
     private readonly prior: Float64Array | null,
+    private readonly candidates: Candidates | null,
   ) {
     this.k = model.factorIds.length;
     this.p = model.p;
@@ -204,6 +266,27 @@ class StructuredState {
     this.A = new Float64Array(this.q * this.q);
     this.inverse = new Float64Array(this.q * this.q);
     this.full = new Float64Array(this.p);
+    const q = this.q;
+    this.prepared = {
+      run: -1,
+      fx: new Float64Array(q),
+      s: new Float64Array(q),
+      a: new Float64Array(q),
+      hx: new Float64Array(q),
+      hs: new Float64Array(q),
+      ha: new Float64Array(q),
+      hy: new Float64Array(q),
+      fy: new Float64Array(q),
+      trial: new Float64Array(this.k),
+      xx: 0, xs: 0, xa: 0, ss: 0, sa: 0, aa: 0, c: 0, h: 0, e: 0,
+      G: new Float64Array(16),
+      C: new Float64Array(16),
+      work: new Float64Array(16),
+    };
+    this.trialRows = new Float64Array(this.N * q);
+    this.trialPlotSums = new Float64Array(structure.wholePlots * q);
+    this.trialSessionSums = new Float64Array(structure.sessions * q);
+    this.trialA = new Float64Array(q * q);
     const sizes = wholePlotSizes(structure);
     const eta = structure.varianceRatio;
     this.c = Float64Array.from(sizes, (n) => eta / (1 + eta * n));
@@ -228,17 +311,8 @@ class StructuredState {
 
   /** A from the rows, its inverse and log-determinant, and the ridge decision. */
   refresh(): void {
-    const { q, N, structure } = this;
-    this.plotSums.fill(0);
-    this.sessionSums.fill(0);
-    for (let i = 0; i < N; i++) {
-      const w = structure.wholePlotOf[i];
-      for (let a = 0; a < q; a++) this.plotSums[w * q + a] += this.rows[i * q + a];
-    }
-    for (let w = 0; w < structure.wholePlots; w++) {
-      const b = structure.sessionOfWholePlot[w];
-      for (let a = 0; a < q; a++) this.sessionSums[b * q + a] += this.g[w] * this.plotSums[w * q + a];
-    }
+    const { q, N } = this;
+    this.accumulateSums(this.rows, this.plotSums, this.sessionSums);
     this.buildInformation(this.A, this.rows, this.plotSums, this.sessionSums);
     const M = Float64Array.from(this.A);
     let logDet = invertSymmetric(M, q, this.inverse, SINGULAR_PIVOT);
@@ -254,9 +328,9 @@ class StructuredState {
   private buildInformation(out: Float64Array, rows: Float64Array, plotSums: Float64Array, sessionSums: Float64Array): void {
     const { q, N, structure } = this;
     out.fill(0);
-    for (let i = 0; i < N; i++) addOuter(out, q, rows, i * q, 1);
-    for (let w = 0; w < structure.wholePlots; w++) if (this.c[w] !== 0) addOuter(out, q, plotSums, w * q, -this.c[w]);
-    if (this.from === 1) for (let b = 0; b < structure.sessions; b++) if (this.d[b] > 0) addOuter(out, q, sessionSums, b * q, -1 / this.d[b]);
+    for (let i = 0; i < N; i++) addScaledOuter(out, q, rows, 1, i * q);
+    for (let w = 0; w < structure.wholePlots; w++) if (this.c[w] !== 0) addScaledOuter(out, q, plotSums, -this.c[w], w * q);
+    if (this.from === 1) for (let b = 0; b < structure.sessions; b++) if (this.d[b] > 0) addScaledOuter(out, q, sessionSums, -1 / this.d[b], b * q);
     if (this.prior) for (let a = 0; a < q * q; a++) out[a] += this.prior[a];
   }
 
@@ -269,7 +343,10 @@ class StructuredState {
         const members = this.plots[w];
         if (this.fixed[members[0]] !== null) continue;
         if (members.length > 1) moved += this.wholePlotMoves(w);
-        for (const i of members) moved += this.withinMoves(i, members.length === 1);
+        for (const i of members) {
+          moved += this.withinMoves(i, members.length === 1);
+          moved += this.pointMoves(i, members.length === 1);
+        }
       }
       this.refresh();
       if (moved === 0 && ridgeBefore === this.ridge) return pass;
@@ -281,9 +358,7 @@ class StructuredState {
   private wholePlotMoves(w: number): number {
     const { k, q } = this;
     const members = this.plots[w];
-    const trialPoints = new Float64Array(members.length * k);
-    const trialRows = new Float64Array(members.length * q);
-    const trialA = new Float64Array(q * q);
+    const trial = this.prepared.trial;
     let moved = 0;
     for (let j = 0; j < k; j++) {
       if (!this.hard[j]) continue;
@@ -292,13 +367,18 @@ class StructuredState {
       let bestLevel = current;
       for (const level of this.region.levels[j]) {
         if (level === current) continue;
+        this.trialRows.set(this.rows);
         let feasible = true;
-        members.forEach((i, r) => {
-          for (let m = 0; m < k; m++) trialPoints[r * k + m] = m === j ? level : this.points[i * k + m];
-          if (feasible && !this.region.isFeasible(trialPoints.subarray(r * k, (r + 1) * k))) feasible = false;
-        });
+        for (const i of members) {
+          for (let m = 0; m < k; m++) trial[m] = m === j ? level : this.points[i * k + m];
+          if (!this.region.isFeasible(trial)) {
+            feasible = false;
+            break;
+          }
+          this.expandRow(trial, this.trialRows.subarray(i * q, (i + 1) * q));
+        }
         if (!feasible) continue;
-        const logDet = this.trialLogDet(members, trialPoints, trialRows, trialA);
+        const logDet = this.trialLogDet();
         if (logDet > bestLogDet + IMPROVEMENT * Math.max(1, Math.abs(bestLogDet))) {
           bestLogDet = logDet;
           bestLevel = level;
@@ -316,18 +396,22 @@ class StructuredState {
     return moved;
   }
 
-  /** ln det of A (with the current ridge) when the runs `members` take the points `trialPoints`. */
-  private trialLogDet(members: number[], trialPoints: Float64Array, trialRows: Float64Array, trialA: Float64Array): number {
-    const { q, k } = this;
-    const rows = Float64Array.from(this.rows);
-    members.forEach((i, r) => {
-      this.expandRow(trialPoints.subarray(r * k, (r + 1) * k), trialRows.subarray(r * q, (r + 1) * q));
-      rows.set(trialRows.subarray(r * q, (r + 1) * q), i * q);
-    });
-    const plotSums = new Float64Array(this.plotSums.length);
-    const sessionSums = new Float64Array(this.sessionSums.length);
-    const { structure } = this;
-    for (let i = 0; i < this.N; i++) {
+  /** ln det of A (with the current ridge) for the rows in `trialRows`, O(N q² + q³). */
+  private trialLogDet(): number {
+    const q = this.q;
+    this.accumulateSums(this.trialRows, this.trialPlotSums, this.trialSessionSums);
+    this.buildInformation(this.trialA, this.trialRows, this.trialPlotSums, this.trialSessionSums);
+    for (let a = 0; a < q; a++) this.trialA[a * q + a] += this.ridge;
+    const L = choleskyFactor(this.trialA, q, SINGULAR_PIVOT);
+    return L ? choleskyLogDeterminant(L, q) : Number.NEGATIVE_INFINITY;
+  }
+
+  /** Whole-plot sums s_w of `rows` and session sums a_b = Σ_{w∈b} g_w s_w. */
+  private accumulateSums(rows: Float64Array, plotSums: Float64Array, sessionSums: Float64Array): void {
+    const { q, N, structure } = this;
+    plotSums.fill(0);
+    sessionSums.fill(0);
+    for (let i = 0; i < N; i++) {
       const w = structure.wholePlotOf[i];
       for (let a = 0; a < q; a++) plotSums[w * q + a] += rows[i * q + a];
     }
@@ -335,10 +419,55 @@ class StructuredState {
       const b = structure.sessionOfWholePlot[w];
       for (let a = 0; a < q; a++) sessionSums[b * q + a] += this.g[w] * plotSums[w * q + a];
     }
-    this.buildInformation(trialA, rows, plotSums, sessionSums);
-    for (let a = 0; a < q; a++) trialA[a * q + a] += this.ridge;
-    const L = choleskyFactor(trialA, q, SINGULAR_PIVOT);
-    return L ? choleskyLogDeterminant(L, q) : Number.NEGATIVE_INFINITY;
+  }
+
+  /**
+   * Prepares the trials that change run i: A⁻¹f_x, A⁻¹s, A⁻¹a and their products (G without
+   * the f_y entries) and the coefficients of C.
+   */
+  private prepareRun(i: number): void {
+    const { q, structure, prepared: r } = this;
+    const w = structure.wholePlotOf[i];
+    const b = structure.sessionOfWholePlot[w];
+    r.run = i;
+    r.fx = this.rows.subarray(i * q, (i + 1) * q);
+    r.s = this.plotSums.subarray(w * q, (w + 1) * q);
+    r.a = this.sessionSums.subarray(b * q, (b + 1) * q);
+    multiplyInto(this.inverse, q, r.fx, r.hx);
+    multiplyInto(this.inverse, q, r.s, r.hs);
+    multiplyInto(this.inverse, q, r.a, r.ha);
+    r.xx = dot(r.fx, r.hx, q);
+    r.xs = dot(r.fx, r.hs, q);
+    r.xa = dot(r.fx, r.ha, q);
+    r.ss = dot(r.s, r.hs, q);
+    r.sa = dot(r.s, r.ha, q);
+    r.aa = dot(r.a, r.ha, q);
+    r.c = this.c[w];
+    r.h = this.from === 1 ? this.g[w] / this.d[b] : 0;
+    r.e = this.from === 1 ? (this.g[w] * this.g[w]) / this.d[b] : 0;
+  }
+
+  /** det A_new / det A when the prepared run takes the reduced row fy, with hy = A⁻¹fy. */
+  private preparedRatio(fy: Float64Array, hy: Float64Array): number {
+    const { q, prepared: r } = this;
+    const yy = dot(fy, hy, q);
+    const xy = dot(r.fx, hy, q);
+    const sy = dot(r.s, hy, q);
+    const ay = dot(r.a, hy, q);
+    const G = r.G;
+    G[0] = r.xx; G[1] = xy; G[2] = r.xs; G[3] = r.xa;
+    G[4] = xy; G[5] = yy; G[6] = sy; G[7] = ay;
+    G[8] = r.xs; G[9] = sy; G[10] = r.ss; G[11] = r.sa;
+    G[12] = r.xa; G[13] = ay; G[14] = r.sa; G[15] = r.aa;
+    return withinPlotRatio(G, r.c, r.h, r.e, r.C, r.work);
+  }
+
+  /** Sets run i to `point` (coded, length k) and refreshes A. */
+  private setRun(i: number, point: ArrayLike<number>): void {
+    const { k, q } = this;
+    for (let m = 0; m < k; m++) this.points[i * k + m] = point[m];
+    this.expandRow(this.points.subarray(i * k, (i + 1) * k), this.rows.subarray(i * q, (i + 1) * q));
+    this.refresh();
   }
 
   /**
@@ -346,36 +475,14 @@ class StructuredState {
    * run is alone in its whole plot); takes the best improving one per factor.
    */
   private withinMoves(i: number, alone: boolean): number {
-    const { k, q, structure } = this;
-    const w = structure.wholePlotOf[i];
-    const b = structure.sessionOfWholePlot[w];
-    const cw = this.c[w];
-    const hw = this.from === 1 ? this.g[w] / this.d[b] : 0;
-    const ew = this.from === 1 ? (this.g[w] * this.g[w]) / this.d[b] : 0;
-    const trial = new Float64Array(k);
-    const fy = new Float64Array(q);
-    const hx = new Float64Array(q);
-    const hs = new Float64Array(q);
-    const ha = new Float64Array(q);
-    const hy = new Float64Array(q);
-    const G = new Float64Array(16);
-    const C = new Float64Array(16);
-    const IM = new Float64Array(16);
+    const { k, q, prepared: r } = this;
+    const trial = r.trial;
+    const fy = r.fy;
+    const hy = r.hy;
     let moved = 0;
     for (let j = 0; j < k; j++) {
       if (this.hard[j] && !alone) continue;
-      const fx = this.rows.subarray(i * q, (i + 1) * q);
-      const s = this.plotSums.subarray(w * q, (w + 1) * q);
-      const a = this.sessionSums.subarray(b * q, (b + 1) * q);
-      multiply(this.inverse, q, fx, hx);
-      multiply(this.inverse, q, s, hs);
-      multiply(this.inverse, q, a, ha);
-      const xx = dot(fx, hx, q);
-      const xs = dot(fx, hs, q);
-      const xa = dot(fx, ha, q);
-      const ss = dot(s, hs, q);
-      const sa = dot(s, ha, q);
-      const aa = dot(a, ha, q);
+      this.prepareRun(i);
       for (let m = 0; m < k; m++) trial[m] = this.points[i * k + m];
       const current = trial[j];
       const changed = this.changedTerms[j];
@@ -385,37 +492,65 @@ class StructuredState {
         if (level === current) continue;
         trial[j] = level;
         if (!this.region.isFeasible(trial)) continue;
-        fy.set(fx);
-        hy.set(hx);
+        fy.set(r.fx);
+        hy.set(r.hx);
         for (let m = 0; m < changed.length; m++) {
           const t = changed[m];
           const value = termValue(this.model, t + this.from, trial);
-          const delta = value - fx[t];
+          const delta = value - r.fx[t];
           fy[t] = value;
           if (delta === 0) continue;
+          // A⁻¹ is symmetric: column t is row t, which is contiguous.
           const base = t * q;
-          for (let r = 0; r < q; r++) hy[r] += this.inverse[base + r] * delta;
+          for (let a = 0; a < q; a++) hy[a] += this.inverse[base + a] * delta;
         }
-        const yy = dot(fy, hy, q);
-        const xy = dot(fx, hy, q);
-        const sy = dot(s, hy, q);
-        const ay = dot(a, hy, q);
-        // U = [f_x, f_y, s, a]; G = U'A⁻¹U.
-        G.set([xx, xy, xs, xa, xy, yy, sy, ay, xs, sy, ss, sa, xa, ay, sa, aa]);
-        const ratio = withinPlotRatio(G, cw, hw, ew, C, IM);
+        const ratio = this.preparedRatio(fy, hy);
         if (ratio > bestRatio) {
           bestRatio = ratio;
           bestLevel = level;
         }
       }
       if (bestLevel !== current) {
-        this.points[i * k + j] = bestLevel;
-        this.expandRow(this.points.subarray(i * k, (i + 1) * k), this.rows.subarray(i * q, (i + 1) * q));
-        this.refresh();
+        trial[j] = bestLevel;
+        this.setRun(i, trial);
         moved++;
       }
     }
     return moved;
+  }
+
+  /**
+   * Point exchange for run i over the listed feasible grid points that keep its whole plot's
+   * hard-to-change settings (any point when the run is alone): the modified Fedorov step
+   * (Cook & Nachtsheim, 1980, Technometrics 22) inside the whole-plot structure. Moves
+   * several coordinates at once, which coordinate exchange cannot.
+   */
+  private pointMoves(i: number, alone: boolean): number {
+    const candidates = this.candidates;
+    if (candidates === null) return 0;
+    const { k, q, prepared: r } = this;
+    this.prepareRun(i);
+    let bestRatio = 1 + IMPROVEMENT;
+    let best = -1;
+    for (let c = 0; c < candidates.count; c++) {
+      if (!alone && !this.sharesHardSettings(i, candidates.points, c * k)) continue;
+      multiplyInto(this.inverse, q, candidates.rows, r.hy, c * q);
+      const fy = candidates.rows.subarray(c * q, (c + 1) * q);
+      const ratio = this.preparedRatio(fy, r.hy);
+      if (ratio > bestRatio) {
+        bestRatio = ratio;
+        best = c;
+      }
+    }
+    if (best < 0) return 0;
+    this.setRun(i, candidates.points.subarray(best * k, (best + 1) * k));
+    return 1;
+  }
+
+  private sharesHardSettings(i: number, points: Float64Array, offset: number): boolean {
+    const k = this.k;
+    for (let j = 0; j < k; j++) if (this.hard[j] && points[offset + j] !== this.points[i * k + j]) return false;
+    return true;
   }
 }
 
@@ -424,7 +559,7 @@ class StructuredState {
  * the coefficients c = c_w, h = g_w/d_b, e = g_w²/d_b (h = e = 0 with a single session).
  * `C` and `work` are 16-long scratch arrays.
  */
-export function withinPlotRatio(G: Float64Array, c: number, h: number, e: number, C = new Float64Array(16), work = new Float64Array(16)): number {
+export function withinPlotRatio(G: ArrayLike<number>, c: number, h: number, e: number, C: Float64Array = new Float64Array(16), work: Float64Array = new Float64Array(16)): number {
   fillChange(C, c, h, e);
   return determinantOfIdentityPlus(C, G, work);
 }
@@ -466,7 +601,7 @@ function fillChange(C: Float64Array, c: number, h: number, e: number): void {
 }
 
 /** det(I + C G) for 4 × 4 row-major C and G (Gaussian elimination with partial pivoting). */
-function determinantOfIdentityPlus(C: Float64Array, G: Float64Array, work: Float64Array): number {
+function determinantOfIdentityPlus(C: Float64Array, G: ArrayLike<number>, work: Float64Array): number {
   for (let r = 0; r < 4; r++) {
     for (let col = 0; col < 4; col++) {
       let sum = r === col ? 1 : 0;
@@ -496,27 +631,4 @@ function determinantOfIdentityPlus(C: Float64Array, G: Float64Array, work: Float
     }
   }
   return det;
-}
-
-function addOuter(M: Float64Array, width: number, source: Float64Array, offset: number, scale: number): void {
-  for (let a = 0; a < width; a++) {
-    const va = scale * source[offset + a];
-    if (va === 0) continue;
-    for (let b = 0; b < width; b++) M[a * width + b] += va * source[offset + b];
-  }
-}
-
-function multiply(A: Float64Array, q: number, x: ArrayLike<number>, out: Float64Array): void {
-  for (let a = 0; a < q; a++) {
-    let sum = 0;
-    const base = a * q;
-    for (let b = 0; b < q; b++) sum += A[base + b] * x[b];
-    out[a] = sum;
-  }
-}
-
-function dot(x: ArrayLike<number>, y: ArrayLike<number>, q: number): number {
-  let sum = 0;
-  for (let a = 0; a < q; a++) sum += x[a] * y[a];
-  return sum;
 }

@@ -21,7 +21,8 @@
  *
  * Rows are row-major Float64Arrays; the intercept is column 0 (the model's term order).
  */
-import { crossProduct } from './modelMatrix.js';
+import { crossProduct } from '../linalg/crossProduct.js';
+import { addScaledOuter } from '../linalg/symmetricKernels.js';
 
 export interface ErrorStructure {
   /** Whole plot of each fitted run (0-based, every index from 0 to wholePlots − 1 used). */
@@ -75,18 +76,10 @@ function subtractWholePlots(M: Float64Array, width: number, sums: Float64Array, 
   const sizes = wholePlotSizes(structure);
   for (let w = 0; w < structure.wholePlots; w++) {
     const c = eta / (1 + eta * sizes[w]);
-    addOuter(M, width, sums, w * width, -c);
+    addScaledOuter(M, width, sums, -c, w * width);
   }
 }
 
-/** M += scale · v v' for v = source[offset .. offset + width). */
-function addOuter(M: Float64Array, width: number, source: Float64Array, offset: number, scale: number): void {
-  for (let a = 0; a < width; a++) {
-    const va = scale * source[offset + a];
-    if (va === 0) continue;
-    for (let b = 0; b < width; b++) M[a * width + b] += va * source[offset + b];
-  }
-}
 
 /**
  * The information on β adjusted for fixed session effects: over the p − 1 terms other than the
@@ -101,7 +94,7 @@ export function blockAdjustedInformation(X: ArrayLike<number>, N: number, p: num
   const sums = wholePlotSums(reduced, q, 0, structure);
   subtractWholePlots(M, q, sums, structure);
   const { a, d } = sessionSums(sums, q, structure);
-  for (let b = 0; b < structure.sessions; b++) if (d[b] > 0) addOuter(M, q, a, b * q, -1 / d[b]);
+  for (let b = 0; b < structure.sessions; b++) if (d[b] > 0) addScaledOuter(M, q, a, -1 / d[b], b * q);
   return { matrix: M, size: q };
 }
 

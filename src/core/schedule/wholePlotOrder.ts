@@ -17,7 +17,8 @@
  * - Whole plots are numbered 1, 2, … in execution order; sessions 1, 2, … likewise.
  */
 import { spreadSlots } from './centreSpread.js';
-import { shuffled, type RandomGenerator } from './randomOrder.js';
+import { shuffled } from './randomOrder.js';
+import type { RandomGenerator } from '../random.js';
 import type { RunPurpose } from '../design/designTypes.js';
 
 export interface LaidOutRun {

@@ -6,9 +6,9 @@
 import { describe, expect, it } from 'vitest';
 import { compileModel, modelMatrix } from '../../../src/core/model/modelMatrix.js';
 import { blockAdjustedInformation, type ErrorStructure } from '../../../src/core/model/glsInformation.js';
-import { choleskyFactor, choleskyInverse, choleskyLogDeterminant } from '../../../src/core/evaluate/cholesky.js';
+import { choleskyFactor, choleskyInverse, choleskyLogDeterminant } from '../../../src/core/linalg/cholesky.js';
 import { findStructuredDesign, withinPlotRatio } from '../../../src/core/design/structuredExchange.js';
-import type { CandidateRegion } from '../../../src/core/design/designTypes.js';
+import type { CandidateRegion } from '../../../src/core/region/candidateRegion.js';
 
 const levels3 = [-1, 0, 1];
 function boxRegion(k: number, levels: number[] = levels3): CandidateRegion {

@@ -6,7 +6,8 @@
  */
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { compileModel, crossProduct, modelMatrix } from '../../../src/core/model/modelMatrix.js';
+import { compileModel, modelMatrix } from '../../../src/core/model/modelMatrix.js';
+import { crossProduct } from '../../../src/core/linalg/crossProduct.js';
 import {
   blockAdjustedInformation,
   glsInformation,
@@ -14,7 +15,7 @@ import {
   interceptAdjusted,
   type ErrorStructure,
 } from '../../../src/core/model/glsInformation.js';
-import { choleskyFactor, choleskyInverse, choleskyLogDeterminant } from '../../../src/core/evaluate/cholesky.js';
+import { choleskyFactor, choleskyInverse, choleskyLogDeterminant } from '../../../src/core/linalg/cholesky.js';
 
 interface GlsCase {
   name: string;
