@@ -91,26 +91,30 @@ export function findStructuredDesign(request: StructuredSearchRequest): Structur
   const stream = createRandom(seed);
   const candidates = candidateRows(model, region, structure, N);
   const perStart: number[] = [];
-  let best: { points: Float64Array; logDet: number } | null = null;
+  const incumbent = { points: new Float64Array(0), logDet: Number.NEGATIVE_INFINITY };
   let passes = 0;
+  const restarts = starts > 1 ? Math.floor(starts / 2) : 0;
   const total = starts + (request.warmStart ? 1 : 0);
-  for (let s = 0; s < total; s++) {
-    let initial: Float64Array;
-    if (s === 0 && request.warmStart) {
-      initial = Float64Array.from(request.warmStart);
-    } else {
-      const rng = stream.clone();
-      stream.jump();
-      initial = randomStart(region, fixed, plots, hard, k, rng);
-    }
+  const rounds = total + restarts;
+  const consider = (initial: Float64Array): void => {
     const state = new StructuredState(model, region, structure, plots, fixed, hard, initial, request.prior ?? null, candidates);
     passes += state.improve();
     const logDet = state.ridge > 0 ? Number.NEGATIVE_INFINITY : state.logDet;
     perStart.push(logDet);
-    if (best === null || logDet > best.logDet) best = { points: Float64Array.from(state.points), logDet };
-    request.onProgress?.(s + 1, total);
+    if (incumbent.points.length === 0 || logDet > incumbent.logDet + IMPROVEMENT) {
+      incumbent.points = Float64Array.from(state.points);
+      incumbent.logDet = logDet;
+    }
+  };
+  for (let s = 0; s < rounds; s++) {
+    const rng = stream.clone();
+    stream.jump();
+    if (s === 0 && request.warmStart) consider(Float64Array.from(request.warmStart));
+    else if (s < total || incumbent.logDet === Number.NEGATIVE_INFINITY) consider(randomStart(region, fixed, plots, hard, k, rng));
+    else consider(perturbed(incumbent.points, region, fixed, plots, hard, k, rng));
+    request.onProgress?.(s + 1, rounds);
   }
-  const chosen = best as { points: Float64Array; logDet: number };
+  const chosen = incumbent;
   if (chosen.logDet === Number.NEGATIVE_INFINITY) {
     throw new InputError(
       `the whole plots and sessions cannot support the model: every one of ${total} searches left terms confounded with the whole plots or sessions ` +
@@ -191,27 +195,65 @@ function randomStart(
   rng: RandomGenerator,
 ): Float64Array {
   const points = new Float64Array(fixed.length * k);
-  const point = new Float64Array(k);
-  const trial = new Float64Array(k);
+  const scratch = { point: new Float64Array(k), trial: new Float64Array(k) };
   for (const members of plots) {
-    if (fixed[members[0]] !== null) {
-      for (const i of members) points.set(fixed[i] as readonly number[], i * k);
-      continue;
-    }
-    if (!randomFeasiblePoint(region, rng, point)) {
-      throw new InputError('no feasible setting was found in the candidate region; check the constraints and equipment limits', { key: 'constraints' });
-    }
-    points.set(point, members[0] * k);
-    for (let r = 1; r < members.length; r++) {
-      let placed = false;
-      for (let attempt = 0; attempt < WITHIN_ATTEMPTS && !placed; attempt++) {
-        for (let j = 0; j < k; j++) trial[j] = hard[j] ? point[j] : region.levels[j][uniformInt(rng, 0, region.levels[j].length - 1)];
-        placed = region.isFeasible(trial);
-      }
-      points.set(placed ? trial : point, members[r] * k);
-    }
+    if (fixed[members[0]] !== null) for (const i of members) points.set(fixed[i] as readonly number[], i * k);
+    else drawPlot(points, members, region, hard, k, rng, scratch);
   }
   return points;
+}
+
+/**
+ * A restart from the best design so far (iterated local search): about a quarter of its free
+ * whole plots (at least one) are drawn afresh, the rest kept. Restarts from a perturbed
+ * optimum find better designs than the same number of random starts on rugged problems
+ * (Lourenço, Martin & Stützle, 2003, "Iterated local search", Handbook of Metaheuristics).
+ */
+function perturbed(
+  best: Float64Array,
+  region: CandidateRegion,
+  fixed: (readonly number[] | null)[],
+  plots: number[][],
+  hard: readonly boolean[],
+  k: number,
+  rng: RandomGenerator,
+): Float64Array {
+  const points = Float64Array.from(best);
+  const free = plots.filter((members) => fixed[members[0]] === null);
+  if (free.length === 0) return points;
+  const scratch = { point: new Float64Array(k), trial: new Float64Array(k) };
+  const count = Math.max(1, Math.round(free.length * 0.25));
+  for (let c = 0; c < count; c++) {
+    const pick = uniformInt(rng, c, free.length - 1);
+    [free[c], free[pick]] = [free[pick], free[c]];
+    drawPlot(points, free[c], region, hard, k, rng, scratch);
+  }
+  return points;
+}
+
+/** Random feasible settings for one whole plot: the hard-to-change ones shared by its runs. */
+function drawPlot(
+  points: Float64Array,
+  members: number[],
+  region: CandidateRegion,
+  hard: readonly boolean[],
+  k: number,
+  rng: RandomGenerator,
+  scratch: { point: Float64Array; trial: Float64Array },
+): void {
+  const { point, trial } = scratch;
+  if (!randomFeasiblePoint(region, rng, point)) {
+    throw new InputError('no feasible setting was found in the candidate region; check the constraints and equipment limits', { key: 'constraints' });
+  }
+  points.set(point, members[0] * k);
+  for (let r = 1; r < members.length; r++) {
+    let placed = false;
+    for (let attempt = 0; attempt < WITHIN_ATTEMPTS && !placed; attempt++) {
+      for (let j = 0; j < k; j++) trial[j] = hard[j] ? point[j] : region.levels[j][uniformInt(rng, 0, region.levels[j].length - 1)];
+      placed = region.isFeasible(trial);
+    }
+    points.set(placed ? trial : point, members[r] * k);
+  }
 }
 
 /** The design being improved: points, reduced model rows, sums per whole plot and session, A and A⁻¹. */
@@ -348,6 +390,7 @@ class StructuredState {
           moved += this.pointMoves(i, members.length === 1);
         }
       }
+      if (this.structure.sessions > 1) moved += this.sessionSwaps();
       this.refresh();
       if (moved === 0 && ridgeBefore === this.ridge) return pass;
     }
@@ -391,6 +434,42 @@ class StructuredState {
         }
         this.refresh();
         moved = 1;
+      }
+    }
+    return moved;
+  }
+
+  /**
+   * Swaps the whole contents of two free whole plots of the same size in different sessions
+   * when that raises ln det A: the balance of settings across sessions, which no single
+   * coordinate move can change without first making the design worse. Scored from scratch,
+   * O(W² (N q² + q³)) per pass; returns the number of swaps taken.
+   */
+  private sessionSwaps(): number {
+    const { k, q } = this;
+    const free = this.plots.map((members, w) => w).filter((w) => this.fixed[this.plots[w][0]] === null);
+    let moved = 0;
+    for (let x = 0; x < free.length; x++) {
+      for (let y = x + 1; y < free.length; y++) {
+        const u = this.plots[free[x]];
+        const v = this.plots[free[y]];
+        if (u.length !== v.length || this.structure.sessionOfWholePlot[free[x]] === this.structure.sessionOfWholePlot[free[y]]) continue;
+        this.trialRows.set(this.rows);
+        for (let r = 0; r < u.length; r++) {
+          this.trialRows.copyWithin(u[r] * q, v[r] * q, (v[r] + 1) * q);
+          this.trialRows.set(this.rows.subarray(u[r] * q, (u[r] + 1) * q), v[r] * q);
+        }
+        const logDet = this.trialLogDet();
+        if (logDet > this.logDet + IMPROVEMENT * Math.max(1, Math.abs(this.logDet))) {
+          for (let r = 0; r < u.length; r++) {
+            const held = this.points.slice(u[r] * k, (u[r] + 1) * k);
+            this.points.copyWithin(u[r] * k, v[r] * k, (v[r] + 1) * k);
+            this.points.set(held, v[r] * k);
+          }
+          this.rows.set(this.trialRows);
+          this.refresh();
+          moved++;
+        }
       }
     }
     return moved;
