@@ -1,7 +1,8 @@
 /**
  * The dense kernels on small row-major p × p matrices that the design search, the continuous
  * bound and the evaluation share: A·x, x·y, the quadratic form f′Af (with A = M⁻¹ it is the
- * prediction variance d(x) = f(x)′M⁻¹f(x)) and trace(AB) of two symmetric matrices.
+ * prediction variance d(x) = f(x)′M⁻¹f(x)), trace(AB) of two symmetric matrices and the
+ * rank-one change M += s·vv′.
  *
  * Sources: the definitions themselves (Golub & Van Loan, 2013, "Matrix Computations", 4th ed.,
  * §1.1); trace(AB) = Σ_ij A_ij B_ij holds because B is symmetric.
@@ -50,4 +51,14 @@ export function traceOfProduct(A: ArrayLike<number>, B: ArrayLike<number>): numb
   let trace = 0;
   for (let i = 0; i < A.length; i++) trace += A[i] * B[i];
   return trace;
+}
+
+/** M += scale · v v′ for a p × p row-major M, v = v[offset .. offset + p) (a rank-one update of M itself). */
+export function addScaledOuter(M: Float64Array, p: number, v: ArrayLike<number>, scale: number, offset = 0): void {
+  for (let a = 0; a < p; a++) {
+    const va = scale * v[offset + a];
+    if (va === 0) continue;
+    const base = a * p;
+    for (let b = 0; b < p; b++) M[base + b] += va * v[offset + b];
+  }
 }
