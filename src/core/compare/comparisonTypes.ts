@@ -4,7 +4,7 @@
  * Key names are a contract (plan.json `comparison`, `tierplan compare --json`).
  * Every figure is for the proposed plan's target model, in coded units.
  */
-import type { EqualPrecisionEntry } from './precisionBlock.js';
+import type { EqualPrecisionEntry } from './equalPrecision.js';
 
 export type ComparatorId =
   | 'proposed'
