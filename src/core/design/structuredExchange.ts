@@ -42,6 +42,8 @@ const MAX_PASSES = 200;
 const WITHIN_ATTEMPTS = 50;
 /** Largest N·n·p² (multiply-adds per point-exchange pass) for which the point exchange is run. */
 const POINT_EXCHANGE_BUDGET = 2e7;
+/** Share of the free whole plots a restart from the incumbent draws afresh (our tuning on the sample). */
+const PERTURBED_SHARE = 0.25;
 
 export interface StructuredSearchRequest {
   model: CompiledModel;
@@ -117,7 +119,7 @@ export function findStructuredDesign(request: StructuredSearchRequest): Structur
   const chosen = incumbent;
   if (chosen.logDet === Number.NEGATIVE_INFINITY) {
     throw new InputError(
-      `the whole plots and sessions cannot support the model: every one of ${total} searches left terms confounded with the whole plots or sessions ` +
+      `the whole plots and sessions cannot support the model: every one of ${rounds} searches left terms confounded with the whole plots or sessions ` +
         '(too few whole plots for the hard-to-change terms, or too few runs per session); use more whole plots or runs, or a smaller model',
       { key: 'design.wholePlots' },
     );
@@ -204,7 +206,7 @@ function randomStart(
 }
 
 /**
- * A restart from the best design so far (iterated local search): about a quarter of its free
+ * A restart from the best design so far (iterated local search): `PERTURBED_SHARE` of its free
  * whole plots (at least one) are drawn afresh, the rest kept. Restarts from a perturbed
  * optimum find better designs than the same number of random starts on rugged problems
  * (Lourenço, Martin & Stützle, 2003, "Iterated local search", Handbook of Metaheuristics).
@@ -222,7 +224,7 @@ function perturbed(
   const free = plots.filter((members) => fixed[members[0]] === null);
   if (free.length === 0) return points;
   const scratch = { point: new Float64Array(k), trial: new Float64Array(k) };
-  const count = Math.max(1, Math.round(free.length * 0.25));
+  const count = Math.max(1, Math.round(free.length * PERTURBED_SHARE));
   for (let c = 0; c < count; c++) {
     const pick = uniformInt(rng, c, free.length - 1);
     [free[c], free[pick]] = [free[pick], free[c]];

@@ -66,12 +66,12 @@ export function structuredPrecision(
   const eta = structure.varianceRatio;
 
   const M = glsInformation(X, n, p, structure);
-  const scaled = Float64Array.from(M, (v) => v / n);
-  const factor = choleskyFactor(scaled, p, SINGULAR_PIVOT);
-  const logDetPerRun = factor ? choleskyLogDeterminant(factor, p) : null;
+  // ln det(M / n) = ln det M − p ln n; the pivot floor is relative, so scaling changes nothing else.
+  const factor = choleskyFactor(M, p, SINGULAR_PIVOT);
+  const logDetPerRun = factor ? choleskyLogDeterminant(factor, p) - p * Math.log(n) : null;
 
   const adjusted = blockAdjustedInformation(X, n, p, structure);
-  const adjustedFactor = choleskyFactor(Float64Array.from(adjusted.matrix), adjusted.size, SINGULAR_PIVOT);
+  const adjustedFactor = choleskyFactor(adjusted.matrix, adjusted.size, SINGULAR_PIVOT);
   let covariance: Float64Array | null = null;
   if (adjustedFactor) {
     const inverse = choleskyInverse(adjustedFactor, adjusted.size);
