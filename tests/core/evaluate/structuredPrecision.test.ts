@@ -3,40 +3,16 @@
  * `metrics.gls` and `metrics.blocks`, against the dense numpy computation of
  * tests/reference/splitplot/generate.py (gls.json) and the identities that pin the units.
  */
-import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
+import { glsFixture as fixture, glsModel as model, structureOf } from '../../support/glsFixture.js';
 import { compileModel, modelMatrix } from '../../../src/core/model/modelMatrix.js';
 import { crossProduct } from '../../../src/core/linalg/crossProduct.js';
 import { choleskyFactor, choleskyInverse, choleskyLogDeterminant } from '../../../src/core/linalg/cholesky.js';
 import { independentRuns, type ErrorStructure } from '../../../src/core/model/glsInformation.js';
 import { structuredPrecision, wholePlotTerms } from '../../../src/core/evaluate/structuredPrecision.js';
 
-interface GlsCase {
-  name: string;
-  points: number[][];
-  wholePlotOf: number[];
-  sessionOfWholePlot: number[];
-  varianceRatio: number;
-  logDetPerRun: number;
-  covariance: number[][];
-  informationKept?: number;
-}
-const fixture = JSON.parse(readFileSync(new URL('../../reference/splitplot/gls.json', import.meta.url), 'utf8')) as { cases: GlsCase[] };
-const model = compileModel(
-  [{ powers: {} }, { powers: { x1: 1 } }, { powers: { x2: 1 } }, { powers: { x1: 1, x2: 1 } }, { powers: { x1: 2 } }, { powers: { x2: 2 } }],
-  ['x1', 'x2'],
-);
+/** The fixture's x1 is hard to change. */
 const hard = [true, false];
-
-function structureOf(c: GlsCase): ErrorStructure {
-  return {
-    wholePlotOf: Int32Array.from(c.wholePlotOf),
-    sessionOfWholePlot: Int32Array.from(c.sessionOfWholePlot),
-    wholePlots: c.sessionOfWholePlot.length,
-    sessions: Math.max(...c.sessionOfWholePlot) + 1,
-    varianceRatio: c.varianceRatio,
-  };
-}
 
 describe('structured precision against numpy', () => {
   it.each(fixture.cases.map((c) => [c.name, c] as const))('%s', (_name, c) => {

@@ -4,8 +4,8 @@
  * (tests/reference/splitplot/generate.py → gls.json), and the identities that pin the
  * definitions (Goos & Vandebroek, 2003, Technometrics 45).
  */
-import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
+import { glsFixture as fixture, glsModel as model, structureOf } from '../../support/glsFixture.js';
 import { compileModel, modelMatrix } from '../../../src/core/model/modelMatrix.js';
 import { crossProduct } from '../../../src/core/linalg/crossProduct.js';
 import {
@@ -17,33 +17,6 @@ import {
 } from '../../../src/core/model/glsInformation.js';
 import { choleskyFactor, choleskyInverse, choleskyLogDeterminant } from '../../../src/core/linalg/cholesky.js';
 
-interface GlsCase {
-  name: string;
-  points: number[][];
-  wholePlotOf: number[];
-  sessionOfWholePlot: number[];
-  varianceRatio: number;
-  glsInformation: number[][];
-  logDetPerRun: number;
-  covariance: number[][];
-  adjustedInformation?: number[][];
-  informationKept?: number;
-}
-const fixture = JSON.parse(readFileSync(new URL('../../reference/splitplot/gls.json', import.meta.url), 'utf8')) as { cases: GlsCase[] };
-const model = compileModel(
-  [{ powers: {} }, { powers: { x1: 1 } }, { powers: { x2: 1 } }, { powers: { x1: 1, x2: 1 } }, { powers: { x1: 2 } }, { powers: { x2: 2 } }],
-  ['x1', 'x2'],
-);
-
-function structureOf(c: GlsCase): ErrorStructure {
-  return {
-    wholePlotOf: Int32Array.from(c.wholePlotOf),
-    sessionOfWholePlot: Int32Array.from(c.sessionOfWholePlot),
-    wholePlots: c.sessionOfWholePlot.length,
-    sessions: Math.max(...c.sessionOfWholePlot) + 1,
-    varianceRatio: c.varianceRatio,
-  };
-}
 function logDet(M: Float64Array, size: number): number {
   const L = choleskyFactor(M, size);
   if (!L) throw new Error('singular');
