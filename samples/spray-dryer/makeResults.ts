@@ -82,11 +82,28 @@ function normal(random: ReturnType<typeof createRandom>): number {
 }
 
 /** Per run number: the result cells (response id → value) and the operator mark. */
+/** Invented whole-plot standard deviation over the run noise (a variance ratio η of 0.25). */
+const WHOLE_PLOT_SHARE = 0.5;
+
 export function inventedResults(plan: PlanDocument): Map<number, Record<string, number>> {
   const random = createRandom(RESULT_SEED);
   const factorOf = new Map(plan.study.factors.map((factor) => [factor.id, factor]));
   const runOf = new Map(plan.runs.map((run) => [run.point, run]));
   const results = new Map<number, Record<string, number>>();
+  // Invented split-plot error: a shift per whole plot (the reset of the hard-to-change setting
+  // is never exactly the same) of WHOLE_PLOT_SHARE times the run noise, drawn once per whole
+  // plot from its own stream so that the run noise stays as before.
+  const plotRandom = createRandom(RESULT_SEED + 1);
+  const plotShift = new Map<number, Record<string, number>>();
+  const shiftOf = (wholePlot: number | undefined, responseId: string): number => {
+    if (wholePlot === undefined) return 0;
+    if (!plotShift.has(wholePlot)) {
+      const shifts: Record<string, number> = {};
+      for (const id of Object.keys(INVENTED_PROCESS)) shifts[id] = WHOLE_PLOT_SHARE * INVENTED_PROCESS[id].noise * normal(plotRandom);
+      plotShift.set(wholePlot, shifts);
+    }
+    return plotShift.get(wholePlot)![responseId] ?? 0;
+  };
   for (const scheduled of plan.schedule!.order) {
     const run = runOf.get(scheduled.point)!;
     const coded = (id: keyof Coded): number => {
@@ -105,7 +122,7 @@ export function inventedResults(plan: PlanDocument): Map<number, Record<string, 
       const process = INVENTED_PROCESS[response.id];
       const noise = normal(random);
       if (!process) continue;
-      row[response.id] = Number((process.value(x) + process.noise * noise).toFixed(process.decimals));
+      row[response.id] = Number((process.value(x) + shiftOf(run.wholePlot, response.id) + process.noise * noise).toFixed(process.decimals));
     }
     results.set(scheduled.sequence, row);
   }

@@ -8,6 +8,7 @@ import { counted } from '../core/countedNoun.js';
 import { renderTable } from '../io/textTable.js';
 import { efficiencyText, indexText, settingText, varianceText } from '../io/numberText.js';
 import { precisionSummaryLines } from './precisionSummary.js';
+import { splitPlotView } from '../io/splitPlotView.js';
 
 export function planSummary(plan: PlanDocument): string {
   const lines: string[] = [];
@@ -70,6 +71,25 @@ export function planSummary(plan: PlanDocument): string {
   );
   lines.push(`Average prediction variance over the region (I-criterion): ${varianceText(metrics.iCriterion)} σ²`);
   if (plan.schedule) lines.push(plan.schedule.note);
+  if (metrics.gls && metrics.blocks) {
+    lines.push(
+      `Under the lab's error structure: ln det(X'V⁻¹X/n) = ${metrics.gls.logDetPerRun === null ? 'singular' : metrics.gls.logDetPerRun.toFixed(3)} over the fitted runs (η = ${metrics.gls.varianceRatio}); ` +
+        `${metrics.blocks.sessions > 1 ? `the ${metrics.blocks.sessions} session effects leave ${metrics.blocks.informationKept === null ? 'an undefined share' : `${(100 * metrics.blocks.informationKept).toFixed(1)} %`} of the information per term` : 'one session, no block effects'}`,
+    );
+  }
+  const split = splitPlotView(plan);
+  if (split) {
+    lines.push('');
+    lines.push(split.wholePlotsLine);
+    lines.push(
+      renderTable(
+        [{ header: 'Way of running it' }, ...split.headers.map((header) => ({ header, align: 'right' as const }))],
+        split.rows.map((row) => [row.name, ...row.cells]),
+      ),
+    );
+    lines.push(split.statement);
+    lines.push(split.analysis);
+  }
 
   const comparison = plan.comparison;
   if (comparison) {

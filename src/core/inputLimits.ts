@@ -175,6 +175,20 @@ export const INPUT_LIMITS = {
     why: 'lab campaigns run tens of runs, rarely a few hundred',
     kind: 'refusal',
   },
+  wholePlots: {
+    value: 1000,
+    unit: 'whole plots',
+    appliesTo: 'design.wholePlots',
+    why: 'at most one whole plot per fitting run',
+    kind: 'refusal',
+  },
+  varianceRatio: {
+    value: 100,
+    unit: 'times the run variance',
+    appliesTo: 'design.varianceRatio',
+    why: 'split-plot studies report whole-plot variances up to about ten times the run variance',
+    kind: 'refusal',
+  },
   centreRuns: {
     value: 100,
     unit: 'runs',

@@ -142,7 +142,25 @@ export interface DesignSettings {
   maxRuns?: number;
   /** Potential terms (Bayesian D-optimality): `auto` (the rule in potentialTerms.ts) or a term list ([] for none). */
   potential: 'auto' | string[];
+  /**
+   * Whole plots of the fitting runs when a varied factor is hard to change: `auto` (chosen from
+   * the costs and the precision target, core/plan/wholePlotCount.ts) or a count. Optional only
+   * so that plans written before the key existed still read; the study reader fills `auto`.
+   */
+  wholePlots?: number | 'auto';
+  /**
+   * η, the whole-plot variance over the run-to-run variance, for the split-plot criterion and
+   * its precision (default DEFAULT_VARIANCE_RATIO). Filled by the study reader like `wholePlots`.
+   */
+  varianceRatio?: number;
 }
+
+/**
+ * η when the study gives none: whole-plot and run variances equal, the value the split-plot
+ * literature uses when nothing is known (Goos & Vandebroek, 2003, Technometrics 45, 235–245,
+ * report designs for η = 1 as the central case; "common practice").
+ */
+export const DEFAULT_VARIANCE_RATIO = 1;
 
 export interface SessionSettings {
   /** Maximum runs in one session (day, shift or batch). */
@@ -221,4 +239,6 @@ export const DEFAULT_DESIGN: DesignSettings = {
   starts: 20,
   precision: { power: 0.8, alpha: 0.05 },
   potential: 'auto',
+  wholePlots: 'auto',
+  varianceRatio: DEFAULT_VARIANCE_RATIO,
 };

@@ -28,6 +28,7 @@ import { comparatorName } from './comparatorNames.js';
 import { decisionPage } from './managerDecision.js';
 import { overLimitSummary, sessionsSentence } from './sessionWording.js';
 import { PURPOSE_WORDS } from './runSheetTable.js';
+import { splitPlotView } from './splitPlotView.js';
 import {
   ABSENT,
   countOf,
@@ -267,6 +268,7 @@ export async function managerReportHtml(plan: PlanDocument, schedule: Schedule |
       responses: pair.responses.join(', '),
     })),
     runTable: runRows(plan, schedule),
+    splitPlot: splitPlotView(plan),
     scheduleNote: schedule ? schedule.note : 'No run schedule is stored: runs are listed in plan order and are not randomised.',
     metrics: {
       dEfficiency: efficiencyText(plan.metrics.dEfficiency),

@@ -192,6 +192,13 @@ const designSchema = z
       .union([z.literal('auto'), z.array(z.string().min(1))], { error: 'must be "auto" or a list of model terms such as [inlet_temp^3] ([] for none)' })
       .optional()
       .describe('potential terms the plan guards against without estimating them: auto (default) or a term list, [] for none'),
+    wholePlots: z
+      .union([capped(z.number().int().min(1), 'wholePlots'), z.literal('auto')], { error: runsError('whole number of whole plots (≥ 1) or "auto"', 'wholePlots') })
+      .optional()
+      .describe('whole plots of the fitting runs when a factor is hard to change, or auto (default: chosen from the costs and the precision target)'),
+    varianceRatio: capped(z.number().min(0, { error: 'must be 0 or more (the whole-plot variance over the run variance)' }), 'varianceRatio')
+      .optional()
+      .describe('whole-plot variance over run-to-run variance for the split-plot design (default 1)'),
   })
   .describe('the design search');
 

@@ -156,20 +156,28 @@ describe('tierplan plan --json without --out', () => {
 
 describe('tierplan plan --criterion I', () => {
   it('finds a plan with a smaller average prediction variance than the D-optimal one', () => {
-    // A D-optimal plan of the sample: the one the first block wrote (its seed may be 7 after the
-    // overwrite test; the I-criterion margin, about 0.59 against 0.77–0.81, does not depend on it).
-    const d = JSON.parse(readFileSync(join(sampleOut, 'plan.json'), 'utf8')).metrics;
-    // The same number of fitting runs, so that only the criterion differs (runs: auto sizes each criterion's plan).
-    const iPlan = runCli(['plan', sample, '--json', '--starts', '4', '--criterion', 'I', '--runs', String(d.N)]);
+    // The sample without whole plots or sessions (the I-criterion applies to completely
+    // randomised plans), both criteria at the same number of fitting runs so that only the
+    // criterion differs.
+    const study = editedSample((text) => text.replace('    hardToChange: true\n', '').replace(/\nsessions:\n(  .*\n)+/, '\n'));
+    const dPlan = runCli(['plan', study, '--json', '--starts', '4', '--criterion', 'D', '--runs', '20']);
+    const iPlan = runCli(['plan', study, '--json', '--starts', '4', '--criterion', 'I', '--runs', '20']);
+    expect(dPlan.status).toBe(0);
     expect(iPlan.status).toBe(0);
+    const d = JSON.parse(dPlan.stdout).metrics;
     const i = JSON.parse(iPlan.stdout).metrics;
     expect(d.criterion).toBe('D');
     expect(i.criterion).toBe('I');
-    // I-optimality minimises trace((X'X)⁻¹W) (Atkinson, Donev & Tobias 2007, §10.6): on the sample the
-    // I-optimal search must beat the D-optimal plan on that criterion, which in turn has the larger det.
+    // I-optimality minimises trace((X'X)⁻¹W) (Atkinson, Donev & Tobias 2007, §10.6): the I-optimal
+    // search must beat the D-optimal plan on that criterion, which in turn has the larger det.
     expect(i.iCriterion).toBeLessThan(d.iCriterion);
     expect(d.logDetPerRun).toBeGreaterThan(i.logDetPerRun);
     expect(i.N).toBe(d.N);
+  });
+
+  it('says so when the plan is laid out in whole plots and sessions, where it searches D', () => {
+    const laid = JSON.parse(runCli(['plan', sample, '--json', '--starts', '2', '--criterion', 'I', '--runs', '21']).stdout);
+    expect(laid.warnings).toContain('the I-criterion is not available for a plan laid out in whole plots or sessions: this plan is D-optimal for the structured model');
   });
 });
 

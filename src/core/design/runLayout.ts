@@ -20,6 +20,7 @@
  * - Everything is 0-based here; plan.json shows whole plots and sessions 1-based.
  */
 import { InputError } from '../inputError.js';
+import type { ErrorStructure } from '../model/glsInformation.js';
 
 export type SlotRole = 'fit' | 'centre' | 'holdout' | 'done';
 
@@ -144,5 +145,49 @@ function assemble(packed: Packed, split: boolean): RunLayout {
     wholePlots: sizes.length,
     sessions: packed.sessions.length,
     split: split && sizes.some((size) => size > 1),
+  };
+}
+
+/** The error structure of the fitted runs of a layout (holdouts left out) and where each sits. */
+export interface FittedStructure {
+  structure: ErrorStructure;
+  /** Layout slot of each fitted run, in layout order. */
+  slots: number[];
+}
+
+/**
+ * The whole plots and sessions of the fitted runs (fitting runs and centre replicates): the
+ * holdout slots are dropped, and whole plots and sessions renumbered from 0 in layout order,
+ * so that a session holding only holdouts does not count.
+ */
+export function fittedStructure(layout: RunLayout, varianceRatio: number): FittedStructure {
+  const slots: number[] = [];
+  layout.roles.forEach((role, i) => {
+    if (role === 'fit' || role === 'centre' || role === 'done') slots.push(i);
+  });
+  const plotIndex = new Map<number, number>();
+  const sessionIndex = new Map<number, number>();
+  const sessionOfPlot: number[] = [];
+  const wholePlotOf = Int32Array.from(slots, (slot) => {
+    const w = layout.wholePlotOf[slot];
+    let renumbered = plotIndex.get(w);
+    if (renumbered === undefined) {
+      renumbered = plotIndex.size;
+      plotIndex.set(w, renumbered);
+      const session = layout.sessionOfWholePlot[w];
+      if (!sessionIndex.has(session)) sessionIndex.set(session, sessionIndex.size);
+      sessionOfPlot.push(sessionIndex.get(session)!);
+    }
+    return renumbered;
+  });
+  return {
+    structure: {
+      wholePlotOf,
+      sessionOfWholePlot: Int32Array.from(sessionOfPlot),
+      wholePlots: plotIndex.size,
+      sessions: Math.max(1, sessionIndex.size),
+      varianceRatio,
+    },
+    slots,
   };
 }

@@ -5,6 +5,11 @@
  * centre and holdout runs → run order → comparison. Each stage is its own module; this one
  * only passes results along and records, for every number, how it was reached.
  *
+ * When a varied factor is hard to change or the study has sessions, the plan is laid out in
+ * whole plots and sessions (plan/laidOutDesign.ts) and searched, judged and ordered under that
+ * structure; otherwise the completely randomised search (design/exactDesign.ts) is used and
+ * the runs are randomised freely.
+ *
  * The checksum and plan id are left empty here: hashing belongs with the file it protects
  * (`src/io/planFile.ts`, `sealPlan`).
  */
@@ -29,7 +34,13 @@ import { INTERCEPT_LABEL, termLabel, type ModelTerm } from '../model/modelTerm.j
 import { predictEffects } from '../precision/predictedEffects.js';
 import { sizeCampaign } from './campaignSize.js';
 import { xoroshiro128plus } from 'pure-rand/generator/xoroshiro128plus';
-import { scheduleRuns } from '../schedule/scheduleRuns.js';
+import { scheduleLaidOut, scheduleRuns, type LaidOutPlanRun } from '../schedule/scheduleRuns.js';
+import { independentRuns } from '../model/glsInformation.js';
+import { structuredPrecision } from '../evaluate/structuredPrecision.js';
+import { DEFAULT_VARIANCE_RATIO } from '../study.js';
+import { wordList } from '../wordList.js';
+import type { LaidOutDesign } from './laidOutDesign.js';
+import { compareGroupings } from './groupingChoices.js';
 import { buildComparison } from '../compare/buildComparison.js';
 import type { FactorLevels, PlannedRun, RunPurpose } from '../design/designTypes.js';
 import type { CandidateRegion } from '../region/candidateRegion.js';
@@ -94,6 +105,12 @@ export function buildPlan(study: Study, options: BuildPlanOptions): PlanDocument
   const centrePoints = Array.from({ length: design.centreRuns }, () => centre.coded);
   const effects = predictEffects({ ...study, levels });
   const moments = regionMoments(model, region, design.seed);
+  const eta = design.varianceRatio ?? DEFAULT_VARIANCE_RATIO;
+  const hard = factorIds.map((id) => study.factors.find((factor) => factor.id === id)?.hardToChange === true);
+  const anyHard = hard.some(Boolean);
+  const laidOut = anyHard || study.sessions !== undefined;
+  const structureNotes = structureWarnings(study, levels, anyHard, laidOut);
+  const holdoutsFor = (fitRuns: number) => (design.holdoutRuns === 'auto' ? defaultHoldoutCount(fitRuns) : design.holdoutRuns);
   const sized = sizeCampaign({
     model,
     primaryColumns,
@@ -112,15 +129,41 @@ export function buildPlan(study: Study, options: BuildPlanOptions): PlanDocument
     runsSetBy: options.runsSetBy ?? 'the study (design.runs)',
     onProgress: progress,
     onSearchProgress: options.onSearchProgress,
+    ...(laidOut
+      ? {
+          laidOut: {
+            setup: {
+              model,
+              primary,
+              primaryLabels,
+              prior,
+              region,
+              hard,
+              varianceRatio: eta,
+              ...(study.sessions ? { maxRuns: study.sessions.maxRuns } : {}),
+              centre: centre.coded,
+              centreRuns: design.centreRuns,
+              holdouts: holdoutsFor,
+              effects,
+              target: design.precision,
+              seed: design.seed,
+            },
+            wholePlots: design.wholePlots ?? 'auto',
+            anyHard,
+            ...(study.costs ? { costs: study.costs } : {}),
+          },
+        }
+      : {}),
   });
   const exact = sized.exact;
+  const laid = sized.laid?.design ?? null;
   // Already in standard order (first factor slowest, ascending); the schedule randomises.
   const fitPoints = exact.points;
 
   progress('computing the continuous D-optimal bound');
   const bound = boundForRegion(primary, region, fitPoints, design.seed);
 
-  const holdoutCount = design.holdoutRuns === 'auto' ? defaultHoldoutCount(fitPoints.length) : design.holdoutRuns;
+  const holdoutCount = holdoutsFor(fitPoints.length);
   const occupied = design.centreRuns > 0 ? [...fitPoints, centre.coded] : fitPoints;
   const holdoutPoints =
     holdoutCount > 0 ? chooseHoldoutRuns(region, occupied, holdoutCount, design.seed, { atMost: design.holdoutRuns === 'auto' }) : [];
@@ -130,6 +173,12 @@ export function buildPlan(study: Study, options: BuildPlanOptions): PlanDocument
     ...centrePoints.map((point, i) => plannedRun(`C${i + 1}`, 'centre', point, varied, levels, study)),
     ...holdoutPoints.map((point, i) => plannedRun(`H${i + 1}`, 'holdout', point, varied, levels, study)),
   ];
+  const laidRuns = laid ? laidOutRuns(laid, runs) : null;
+  // The GLS figures of the fitted runs: the laid-out plan's own, or, for a completely randomised
+  // plan, every run its own whole plot (V = (1 + η) I).
+  const glsFigures = laid
+    ? laid.evaluation
+    : structuredPrecision(primary, [...fitPoints, ...centrePoints], { ...independentRuns(fitPoints.length + centrePoints.length), varianceRatio: eta }, hard);
 
   const metrics: PlanMetrics = {
     p: primary.p,
@@ -139,14 +188,25 @@ export function buildPlan(study: Study, options: BuildPlanOptions): PlanDocument
     boundEfficiency: bound.efficiency,
     boundNote: `${bound.note}; fitting runs only, centre replicates excluded`,
     iCriterion: exact.iCriterion,
-    criterion: design.criterion,
+    // A laid-out plan is searched under D whatever the study asks (a warning says so).
+    criterion: laid ? 'D' : design.criterion,
     seed: design.seed,
     starts: design.starts,
     runsNote: `${sized.runsNote}; ${lackOfFit([...fitPoints, ...centrePoints], primary.p).note}`,
     lackOfFit: lackOfFit([...fitPoints, ...centrePoints], primary.p),
+    gls: glsFigures.gls,
+    blocks: glsFigures.blocks,
   };
+  if (laid && design.criterion === 'I') {
+    structureNotes.push('the I-criterion is not available for a plan laid out in whole plots or sessions: this plan is D-optimal for the structured model');
+  }
 
-  const { warnings, ...studyEcho } = study;
+  const { warnings, ...studyInput } = study;
+  // The whole-plot count and η the plan used, echoed where the study gives them.
+  const studyEcho = {
+    ...studyInput,
+    design: { ...studyInput.design, wholePlots: laid?.wholePlots ?? design.wholePlots ?? 'auto', varianceRatio: eta },
+  };
   const plan: PlanDocument = {
     formatVersion: 1,
     tool: { name: 'tierplan', version: options.toolVersion },
@@ -167,16 +227,80 @@ export function buildPlan(study: Study, options: BuildPlanOptions): PlanDocument
       ...potential.notes,
       ...guarded.notes,
       ...(centre.note ? [centre.note] : []),
+      ...structureNotes,
       `I-criterion region moments: ${moments.method}`,
     ],
   };
 
-  plan.schedule = scheduleRuns(plan, design.seed);
+  if (laid && laidRuns) {
+    const { schedule, placement } = scheduleLaidOut(plan, laidRuns.filter((run) => runs.some((r) => r.point === run.point)), design.seed, laid.layout.split);
+    plan.schedule = schedule;
+    for (const run of plan.runs) {
+      const place = placement.get(run.point)!;
+      run.session = place.session;
+      if (anyHard) run.wholePlot = place.wholePlot;
+    }
+    if (anyHard) {
+      progress('comparing the split-plot plan with a completely randomised one and with grouping after the fact');
+      plan.splitPlot = compareGroupings({
+        plan,
+        laid,
+        setBy: sized.laid?.wholePlotsSetBy ?? null,
+        model,
+        primary,
+        primaryColumns,
+        primaryLabels,
+        prior,
+        region,
+        hard,
+        effects,
+        target: design.precision,
+        seed: design.seed,
+        starts: design.starts,
+        centrePoints,
+      });
+    }
+  } else {
+    plan.schedule = scheduleRuns(plan, design.seed);
+  }
   if (!options.skipComparison) {
     progress('building the comparison with classical plans');
     plan.comparison = buildComparison(plan);
   }
   return plan;
+}
+
+/** Warnings about the whole plots and sessions a study asks for (none is an error). */
+function structureWarnings(study: Study, levels: FactorLevels[], anyHard: boolean, laidOut: boolean): string[] {
+  const notes: string[] = [];
+  const fixedHard = study.factors.filter((factor) => factor.hardToChange === true && levels.some((level) => level.id === factor.id && !level.varied));
+  if (fixedHard.length > 0) {
+    notes.push(
+      `${wordList(fixedHard.map((factor) => factor.name))} ${fixedHard.length === 1 ? 'is' : 'are'} hard to change but held fixed by the plan, so ${fixedHard.length === 1 ? 'it needs' : 'they need'} no changes`,
+    );
+  }
+  if (!anyHard && typeof study.design.wholePlots === 'number') {
+    notes.push('design.wholePlots has no effect: no factor the plan varies is hard to change');
+  }
+  if (!laidOut && study.design.varianceRatio !== undefined && study.design.varianceRatio !== DEFAULT_VARIANCE_RATIO) {
+    notes.push('design.varianceRatio has no effect on the search: no factor the plan varies is hard to change and the study has no sessions');
+  }
+  return notes;
+}
+
+/** The layout whole plot and session of every run of a laid-out plan (holdouts in the holdout slots). */
+function laidOutRuns(laid: LaidOutDesign, runs: PlannedRun[]): LaidOutPlanRun[] {
+  const byRole = { fit: runs.filter((run) => run.purpose === 'fit'), centre: runs.filter((run) => run.purpose === 'centre'), holdout: runs.filter((run) => run.purpose === 'holdout') };
+  const next = { fit: 0, centre: 0, holdout: 0 };
+  const out: LaidOutPlanRun[] = [];
+  laid.layout.roles.forEach((role, slot) => {
+    if (role === 'done') return;
+    const run = byRole[role][next[role]++];
+    if (!run) return; // a holdout slot left empty (fewer holdouts found than laid out)
+    const wholePlot = laid.layout.wholePlotOf[slot];
+    out.push({ point: run.point, purpose: run.purpose, wholePlot, session: laid.layout.sessionOfWholePlot[wholePlot] });
+  });
+  return out;
 }
 
 /**

@@ -7,12 +7,20 @@
  * - `auto` with a judged response (one giving `noise`): the smallest N whose re-optimised plan
  *   meets the target for every required pair and interaction (precision/runCountSearch.ts),
  *   from the floor max(p, p + 1 − c) — the fewest runs that estimate the p primary terms and,
- *   with the c centre replicates, leave one residual degree of freedom — up to `design.maxRuns`
+ *   with the c centre replicates, leave one residual degree of freedom (after the session
+ *   effects too, in a plan laid out in sessions) — up to `design.maxRuns`
  *   (default 4p, `defaultMaxRuns`). Out of reach: the best plan found, and one sentence with
  *   its power and what would change it.
  * - `auto` without any `noise`: the rule of thumb of runCount.ts, and one sentence saying that
  *   precision cannot be judged.
  * Powers are computed on the fitted runs: the fitting runs plus the centre replicates.
+ *
+ * Laid out (`laidOut`: a varied factor is hard to change, or the runs fill more than one
+ * session): each probe is a plan laid out in whole plots and sessions, its whole-plot count
+ * chosen by wholePlotCount.ts, searched with the structured criterion and judged under the
+ * same structure (plan/laidOutDesign.ts) with a share of the starts; the chosen run count is
+ * then searched again with every start. The I-criterion is not available for laid-out plans:
+ * they are D-optimal for the structured model (the caller warns).
  */
 import { InputError } from '../inputError.js';
 import type { CompiledModel } from '../model/modelMatrix.js';
@@ -20,11 +28,16 @@ import { subModel } from '../model/modelMatrix.js';
 import type { CandidateRegion } from '../region/candidateRegion.js';
 import { findExactDesign, type ExactDesignResult } from '../design/exactDesign.js';
 import { defaultRunCount } from '../design/runCount.js';
-import type { Criterion, PrecisionTarget } from '../study.js';
+import type { CostSettings, Criterion, PrecisionTarget } from '../study.js';
 import type { PredictedEffects } from '../precision/predictedEffects.js';
 import { designPrecision, leastSquaresCovariance, type DesignPrecision } from '../precision/designPrecision.js';
 import { smallestRunCount } from '../precision/runCountSearch.js';
 import type { FactorPrecision, InteractionPrecision, PlanPrecision, RunCurvePoint } from '../precision/precisionTypes.js';
+import { subMatrix } from '../model/modelMatrix.js';
+import { powerPercent } from '../precision/powerWording.js';
+import { dEfficiency, iCriterion, logDetPerRun } from '../evaluate/designCriteria.js';
+import { layoutOf, searchLaidOut, type LaidOutDesign, type LaidOutSetup } from './laidOutDesign.js';
+import { chooseWholePlots, fewestWholePlots, laidOutCost, MAX_EXTRA_RUNS, quickStarts, resetValue } from './wholePlotCount.js';
 
 /** Default cap on the fitting runs `auto` may choose: four runs per primary parameter (our choice). */
 export function defaultMaxRuns(p: number): number {
@@ -53,17 +66,23 @@ export interface CampaignSizeRequest {
   runsSetBy: string;
   onProgress?: (message: string) => void;
   onSearchProgress?: (done: number, total: number) => void;
+  /** Whole plots and sessions: the plan is laid out and searched with the structured criterion. */
+  laidOut?: { setup: LaidOutSetup; wholePlots: number | 'auto'; anyHard: boolean; costs?: CostSettings };
 }
 
 export interface CampaignSize {
   exact: ExactDesignResult;
   precision: PlanPrecision;
   runsNote: string;
+  /** The laid-out plan and how its whole-plot count was reached, when `laidOut` was given. */
+  laid?: { design: LaidOutDesign; wholePlotsSetBy: string | null };
 }
 
 interface Probe {
   exact: ExactDesignResult;
   precision: DesignPrecision;
+  laid?: LaidOutDesign;
+  setBy?: string | null;
 }
 
 export function sizeCampaign(request: CampaignSizeRequest): CampaignSize {
@@ -73,7 +92,33 @@ export function sizeCampaign(request: CampaignSizeRequest): CampaignSize {
   const { effects, target } = request;
   const judged = effects.basis !== 'none';
 
+  const laidProbe = (runs: number): Probe => {
+    const laidOut = request.laidOut!;
+    request.onProgress?.(`searching ${runs}-run plans laid out in whole plots and sessions (${quickStarts(request.starts)} starts each)`);
+    if (!laidOut.anyHard) {
+      const design = searchLaidOut(laidOut.setup, runs, undefined, quickStarts(request.starts));
+      return { exact: exactOf(design), precision: design.precision, laid: design, setBy: null };
+    }
+    const choice = chooseWholePlots(laidOut.setup, runs, laidOut.wholePlots, judged, request.starts);
+    return { exact: exactOf(choice.design), precision: choice.design.precision, laid: choice.design, setBy: choice.setBy };
+  };
+  const exactOf = (design: LaidOutDesign): ExactDesignResult => {
+    const primaryMoments = subMatrix(request.moments, request.model.p, request.primaryColumns);
+    const perRun = logDetPerRun(primary, design.fitPoints);
+    return {
+      points: design.fitPoints,
+      logDetPerRun: perRun,
+      searchLogDetPerRun: design.logDet - design.size * Math.log(design.fitted.slots.length),
+      searchICriterion: Number.NaN,
+      dEfficiency: dEfficiency(primary, design.fitPoints),
+      iCriterion: iCriterion(primary, design.fitPoints, primaryMoments),
+      perStart: design.perStart,
+      algorithm: 'coordinate exchange with whole-plot and within-plot moves (Jones & Goos, 2007), D-optimal for the GLS information adjusted for the sessions',
+    };
+  };
+
   const probe = (runs: number, warm: Probe | null): Probe => {
+    if (request.laidOut) return laidProbe(runs);
     request.onProgress?.(`searching for a ${request.criterion}-optimal ${runs}-run plan (${request.starts} starts)`);
     const exact = findExactDesign({
       model: request.model,
@@ -107,21 +152,38 @@ export function sizeCampaign(request: CampaignSizeRequest): CampaignSize {
   let met: boolean;
   let statement: string;
   let runsNote: string;
+  /**
+   * A laid-out probe searched again with every start; the quick plan stays when it was better
+   * or when only it meets the target (the search maximises D, not the weakest power).
+   */
+  const finish = (quick: Probe): Probe => {
+    if (!quick.laid) return quick;
+    request.onProgress?.(`searching the ${quick.laid.fitRuns}-run plan again with all ${request.starts} starts`);
+    const full = searchLaidOut(request.laidOut!.setup, quick.laid.fitRuns, quick.laid.wholePlots, request.starts, request.onSearchProgress);
+    const better = full.logDet > quick.laid.logDet && (full.precision.met || !quick.precision.met);
+    return better ? { ...quick, exact: exactOf(full), precision: full.precision, laid: full } : quick;
+  };
+
   if (request.runs !== 'auto') {
-    chosen = probe(request.runs, null);
+    chosen = finish(probe(request.runs, null));
     curve = [{ runs: request.runs, weakestPower: chosen.precision.weakestPower }];
     met = judged && chosen.precision.met;
     runsNote = `set by ${request.runsSetBy}`;
     statement = judged ? fixedStatement(request.runs, c, chosen.precision, target, request.runsSetBy) : noNoiseStatement(`${request.runs} fitting runs set by ${request.runsSetBy}`);
   } else if (!judged) {
     const rule = defaultRunCount(p, c);
-    chosen = probe(rule.runs, null);
+    chosen = finish(probe(rule.runs, null));
     curve = [{ runs: rule.runs, weakestPower: null }];
     met = false;
     runsNote = rule.note;
     statement = noNoiseStatement(`the rule of thumb p + max(3, ⌈p/4⌉) = ${rule.runs} fitting runs`);
   } else {
-    const floor = Math.max(p, p + 1 - c);
+    const fixedPlots = request.laidOut?.anyHard && request.laidOut.wholePlots !== 'auto' ? request.laidOut.wholePlots : 0;
+    let floor = Math.max(p, p + 1 - c, fixedPlots);
+    // Sessions take a degree of freedom each beyond the first: the floor leaves one residual df after them too.
+    if (request.laidOut) {
+      while (floor + c - p - (layoutOf(request.laidOut.setup, floor, undefined).sessions - 1) < 1) floor++;
+    }
     const cap = request.maxRuns ?? defaultMaxRuns(p);
     if (cap < floor) {
       throw new InputError(`maxRuns ${cap} is below the ${floor} fitting runs needed to estimate the ${p} model parameters`, { key: 'design.maxRuns' });
@@ -134,16 +196,39 @@ export function sizeCampaign(request: CampaignSizeRequest): CampaignSize {
         return { result, weakestPower: result.precision.weakestPower, met: result.precision.met, shortfall: result.precision.shortfall };
       },
     });
-    chosen = outcome.result;
+    chosen = finish(outcome.result);
     curve = outcome.curve;
     met = outcome.met;
-    const fewer = curve.find((point) => point.runs === outcome.runs - 1);
-    if (outcome.met) {
+    let chosenRuns = outcome.runs;
+    if (chosen.laid && outcome.met && outcome.runs > floor) {
+      // Laid-out probes used a share of the starts: one run fewer is searched again with all of
+      // them before the plan claims that it falls short.
+      const fewerPlan = finish(probe(outcome.runs - 1, null));
+      if (fewerPlan.precision.met) {
+        chosen = fewerPlan;
+        chosenRuns = outcome.runs - 1;
+      }
+      curve = curve.map((point) => (point.runs === outcome.runs - 1 ? { runs: point.runs, weakestPower: fewerPlan.precision.weakestPower } : point));
+    }
+    curve = curve.map((point) => (point.runs === chosenRuns ? { runs: point.runs, weakestPower: chosen.precision.weakestPower } : point));
+    const fewer = curve.find((point) => point.runs === chosenRuns - 1);
+    const cheaper = outcome.met ? cheaperWithMoreRuns(chosen, chosenRuns, cap) : null;
+    if (cheaper) {
+      const fewestRuns = chosenRuns;
+      curve = [...curve.filter((point) => point.runs !== cheaper.probe.laid!.fitRuns), { runs: cheaper.probe.laid!.fitRuns, weakestPower: cheaper.probe.precision.weakestPower }].sort((a, b) => a.runs - b.runs);
+      chosen = cheaper.probe;
+      chosenRuns = cheaper.probe.laid!.fitRuns;
+      runsNote = `the cheapest plan found that meets the precision target: ${chosenRuns} fitting runs in ${chosen.laid!.wholePlots} whole plots cost less than the fewest that meet it, ${fewestRuns} runs in ${cheaper.fewestPlots} whole plots`;
+      statement =
+        `Every effect the sensitivity analysis predicts is detected with ${targetText(target)} by ${chosenRuns} fitting runs in ${chosen.laid!.wholePlots} whole plots plus ${c} centre replicate${c === 1 ? '' : 's'} ` +
+        `(weakest: ${chosen.precision.weakest ? entryName(chosen.precision.weakest) : '–'}, ${percent(chosen.precision.weakestPower)}); ` +
+        `${fewestRuns} runs would do, but only in ${cheaper.fewestPlots} whole plots, and their resets cost ${Math.round(cheaper.saving)} ${request.laidOut!.costs!.currency} more than the ${chosenRuns - fewestRuns} extra run${chosenRuns - fewestRuns === 1 ? '' : 's'} do.`;
+    } else if (outcome.met) {
       runsNote =
-        outcome.runs === floor
+        chosenRuns === floor
           ? `the fewest runs that estimate the ${p} model parameters already meet the precision target`
           : `the smallest run count whose re-optimised plan meets the precision target (${curve.length} run counts tried)`;
-      statement = metStatement(outcome.runs, c, chosen.precision, target, fewer?.weakestPower ?? null, outcome.runs === floor);
+      statement = metStatement(chosenRuns, c, chosen.precision, target, fewer?.weakestPower ?? null, chosenRuns === floor);
     } else {
       runsNote = `the precision target is out of reach within ${cap} fitting runs${request.maxRuns === undefined ? ' (4p, the default of design.maxRuns)' : ' (design.maxRuns)'}; the plan with the best weakest power is kept`;
       statement = unreachableStatement(cap, chosen.precision, target, effects, request.maxRuns === undefined);
@@ -151,8 +236,39 @@ export function sizeCampaign(request: CampaignSizeRequest): CampaignSize {
   }
 
   const fitted = chosen.exact.points.length + c;
+  const df = chosen.laid?.evaluation.df;
+
+  /**
+   * With reset costs: the cheapest plan meeting the target over the fewest runs and up to
+   * MAX_EXTRA_RUNS more (wholePlotCount.ts), stopping once the extra runs alone cost more than
+   * every reset fewer plots could save.
+   */
+  function cheaperWithMoreRuns(best: Probe, runs: number, cap: number): { probe: Probe; saving: number; fewestPlots: number } | null {
+    const laidOut = request.laidOut;
+    const costs = laidOut?.costs;
+    const value = resetValue(costs);
+    if (!laidOut?.anyHard || laidOut.wholePlots !== 'auto' || !costs || value === null || !best.laid || value <= 0) return null;
+    const bestCost = laidOutCost(best.laid, costs, value);
+    let found: { probe: Probe; cost: number } | null = null;
+    for (let extra = 1; extra <= MAX_EXTRA_RUNS && runs + extra <= cap; extra++) {
+      const fewest = fewestWholePlots(laidOut.setup, runs + extra, 1);
+      // No plan of this size can cost less than its runs and the resets of the fewest whole plots.
+      const otherPlots = best.laid.layout.wholePlots - (best.laid.wholePlots ?? runs);
+      const floorCost = (best.laid.layout.roles.length + extra) * costs.perRun + Math.max(0, otherPlots + fewest - 1) * value;
+      if (floorCost >= (found?.cost ?? bestCost)) break;
+      const candidate = probe(runs + extra, null);
+      if (!candidate.precision.met) continue;
+      const cost = laidOutCost(candidate.laid!, costs, value);
+      if (cost < (found?.cost ?? bestCost)) found = { probe: candidate, cost };
+    }
+    if (!found) return null;
+    const finished = finish(found.probe);
+    if (!finished.precision.met) return null;
+    return { probe: finished, saving: bestCost - laidOutCost(finished.laid!, costs, value), fewestPlots: best.laid.wholePlots ?? runs };
+  }
   return {
     exact: chosen.exact,
+    ...(chosen.laid ? { laid: { design: chosen.laid, wholePlotsSetBy: chosen.setBy ?? null } } : {}),
     runsNote,
     precision: {
       power: target.power,
@@ -168,14 +284,13 @@ export function sizeCampaign(request: CampaignSizeRequest): CampaignSize {
       // Not judged at all: the statement's one sentence says it; per-response notes would repeat it.
       notes: judged ? effects.notes : [],
       fittedRuns: fitted,
-      residualDf: fitted - p,
+      residualDf: df ? df.subplot : fitted - p,
+      ...(df?.split ? { wholePlotDf: df.wholePlot } : {}),
     },
   };
 }
 
-function percent(power: number | null): string {
-  return power === null ? 'cannot be tested' : `${(Math.floor(power * 1000) / 10).toFixed(1)} %`;
-}
+const percent = powerPercent;
 
 function targetText(target: PrecisionTarget): string {
   return `at least ${Math.round(target.power * 100)} % power (α = ${target.alpha})`;

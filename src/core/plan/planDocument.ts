@@ -10,6 +10,7 @@ import type { FactorLevels, PlannedRun } from '../design/designTypes.js';
 import type { Comparison } from '../compare/comparisonTypes.js';
 import type { Schedule } from '../schedule/scheduleTypes.js';
 import type { PlanPrecision } from '../precision/precisionTypes.js';
+import type { SplitPlotSummary } from './groupingChoices.js';
 
 export interface PlanModel {
   /** Always true: the intercept is implied by the term syntax. */
@@ -51,6 +52,14 @@ export interface PlanMetrics {
   runsNote: string;
   /** Degrees of freedom of the fitted runs for lack of fit (distinct points − p) and pure error (runs − distinct points) (addition). */
   lackOfFit?: { distinctPoints: number; df: number; pureErrorDf: number; note: string };
+  /**
+   * η and ln det(X'V⁻¹X / n) over the n fitted runs (fitting runs and centre replicates),
+   * V = I + η ZZ' from the runs' whole plots, session effects left out of X; with one whole plot
+   * per run, V = (1 + η) I (evaluate/structuredPrecision.ts).
+   */
+  gls?: { varianceRatio: number; logDetPerRun: number | null };
+  /** Sessions and the information the session effects leave, (det A / det M₀)^(1/(p−1)); 1 with one session. */
+  blocks?: { sessions: number; informationKept: number | null };
 }
 
 export interface PlanDocument {
@@ -75,6 +84,8 @@ export interface PlanDocument {
   comparison?: Comparison;
   /** Filled by the scheduling stage: randomised run order. */
   schedule?: Schedule;
+  /** A plan with hard-to-change factors: its whole plots against the other ways to run it (plan/groupingChoices.ts). */
+  splitPlot?: SplitPlotSummary;
   /** A revision made by `tierplan augment`: the plan it adds runs to. */
   parent?: { id: string; checksum: string };
 }

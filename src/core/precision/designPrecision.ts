@@ -8,6 +8,8 @@
  * - Interaction a·b in the model, response r: the single-term test of that term with β_ab.
  * C is the coefficient covariance over the fitted runs (fitting runs plus centre replicates;
  * holdouts excluded) and ν = fitted runs − p, unless the caller passes its own (e.g. GLS).
+ * With `termDf` (a split-plot or blocked plan: the containment rule, containmentDf.ts) each
+ * test takes the smallest df among its terms instead of ν.
  * A pair whose factor has no main-effect term in the model cannot be tested: power null.
  */
 import type { CompiledModel } from '../model/modelMatrix.js';
@@ -26,6 +28,8 @@ export interface PrecisionRequest {
   /** Coefficient covariance in σ² = 1 units (p × p); null when the model cannot be fitted. */
   covariance: Float64Array | null;
   residualDf: number;
+  /** Denominator df per model term (model order); replaces `residualDf` for the tests when given. */
+  termDf?: readonly number[];
   effects: Pick<PredictedEffects, 'factors' | 'interactions'>;
   alpha: number;
   /** Target power, for `met`. */
@@ -54,7 +58,8 @@ export function designPrecision(request: PrecisionRequest): DesignPrecision {
   const k = model.factorIds.length;
   const blocks = factorBlocks(model);
   let shortfall = 1;
-  const track = (q: number, lambda: number, power: number | null) => {
+  const dfOf = (terms: readonly number[]): number => (request.termDf ? Math.min(...terms.map((t) => request.termDf![t])) : residualDf);
+  const track = (q: number, lambda: number, power: number | null, df: number = residualDf) => {
     if (power === null || !Number.isFinite(lambda)) {
       shortfall = Number.POSITIVE_INFINITY;
       return;
@@ -64,10 +69,14 @@ export function designPrecision(request: PrecisionRequest): DesignPrecision {
       shortfall = Number.POSITIVE_INFINITY;
       return;
     }
-    let ratio = noncentralityForPower(q, residualDf, alpha, request.power) / lambda;
+    if (!(df >= 1)) {
+      shortfall = Number.POSITIVE_INFINITY;
+      return;
+    }
+    let ratio = noncentralityForPower(q, df, alpha, request.power) / lambda;
     // λ grows with the runs, and so does ν, which lowers the λ needed: one refinement step.
     const n = request.fittedRuns;
-    if (n !== undefined && ratio > 1) ratio = noncentralityForPower(q, residualDf + Math.round(n * (ratio - 1)), alpha, request.power) / lambda;
+    if (n !== undefined && ratio > 1) ratio = noncentralityForPower(q, df + Math.round(n * (ratio - 1)), alpha, request.power) / lambda;
     shortfall = Math.max(shortfall, ratio);
   };
 
@@ -87,15 +96,16 @@ export function designPrecision(request: PrecisionRequest): DesignPrecision {
       return entry;
     }
     const coefficients = block.terms.map((t) => (t === block.linear ? effect.effect : 0));
+    const df = dfOf(block.terms);
     const tested = termBlockPower({
       covarianceBlock: covarianceBlock(covariance, p, block.terms),
       coefficients,
       sigma: effect.noise,
-      residualDf,
+      residualDf: df,
       alpha,
     });
     entry.power = tested.power;
-    track(tested.q, tested.noncentrality, tested.power);
+    track(tested.q, tested.noncentrality, tested.power, df);
     return entry;
   });
 
@@ -114,12 +124,13 @@ export function designPrecision(request: PrecisionRequest): DesignPrecision {
       if (match) term = t;
     }
     if (term < 0) continue;
+    const df = dfOf([term]);
     const tested =
       covariance === null
         ? null
-        : termBlockPower({ covarianceBlock: covarianceBlock(covariance, p, [term]), coefficients: [effect.effect], sigma: effect.noise, residualDf, alpha });
+        : termBlockPower({ covarianceBlock: covarianceBlock(covariance, p, [term]), coefficients: [effect.effect], sigma: effect.noise, residualDf: df, alpha });
     const power = tested?.power ?? null;
-    track(1, tested?.noncentrality ?? Number.NaN, power);
+    track(1, tested?.noncentrality ?? Number.NaN, power, df);
     interactions.push({ factors: [...effect.factors], response: effect.response, effect: effect.effect, effectInNoise: effect.effect / effect.noise, power });
   }
 

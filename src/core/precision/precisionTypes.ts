@@ -55,6 +55,11 @@ export interface PlanPrecision {
   notes?: string[];
   /** Runs the powers are computed on: fitting runs plus centre replicates, holdouts excluded (addition). */
   fittedRuns?: number;
-  /** Denominator degrees of freedom ν = fitted runs − p (addition). */
+  /**
+   * Denominator degrees of freedom ν = fitted runs − p; with sessions or whole plots, the
+   * run-stratum df of the containment rule (addition).
+   */
   residualDf?: number;
+  /** Whole-plot error df of a split-plot plan, the df of the hard-to-change factors' tests (addition). */
+  wholePlotDf?: number;
 }

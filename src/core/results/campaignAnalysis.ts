@@ -96,7 +96,6 @@ export interface AnalysisDocument {
 
 
 /** Run extras that split-plot plans carry. */
-type StructuredRun = PlannedRun & { wholePlot?: number; session?: number };
 
 export function analyzeCampaign(
   plan: PlanDocument,
@@ -112,7 +111,7 @@ export function analyzeCampaign(
   const ranges = factorIds.map((id) => ({ low: factorOf.get(id)!.low, high: factorOf.get(id)!.high }));
   const sheetByPoint = new Map(sheet.runs.map((run) => [run.point, run]));
 
-  const analysisRun = (planned: StructuredRun, responseId: string): AnalysisRun => {
+  const analysisRun = (planned: PlannedRun, responseId: string): AnalysisRun => {
     const recorded = sheetByPoint.get(planned.point);
     if (!recorded) throw new Error(`sheet results have no run for point ${planned.point}`);
     const coded = factorIds.map((id) => {
@@ -133,7 +132,7 @@ export function analyzeCampaign(
 
   const responses: CampaignResponse[] = plan.study.responses.map((response) => {
     const targets = response;
-    const planned = plan.runs as StructuredRun[];
+    const planned = plan.runs;
     const runs = planned.filter((run) => run.purpose !== 'holdout').map((run) => analysisRun(run, response.id)).sort(byRunNumber);
     const holdouts = planned.filter((run) => run.purpose === 'holdout').map((run) => analysisRun(run, response.id)).sort(byRunNumber);
     const analysis = analyzeResponse({

@@ -28,6 +28,7 @@ import {
   type GroupableRun,
 } from './hardToChangeGrouping.js';
 import { wordList } from '../wordList.js';
+import { orderByWholePlots } from './wholePlotOrder.js';
 
 const GROUP_ORDER_TRIES = 64;
 const DEFAULT_SESSION_LABEL = 'Session';
@@ -157,3 +158,74 @@ function centresSpreadAlone(sequence: GroupableRun[], hardIds: string[]): boolea
   });
 }
 
+
+/** A run of a laid-out plan with its layout whole plot and session (0-based, layout numbering). */
+export interface LaidOutPlanRun {
+  point: string;
+  purpose: PlannedRun['purpose'];
+  wholePlot: number;
+  session: number;
+}
+
+/**
+ * The run order of a plan laid out in whole plots and sessions (plan/laidOutDesign.ts): whole
+ * plots in random order within their session, runs in random order within their whole plot
+ * (wholePlotOrder.ts). Returns the schedule and, per point, the 1-based whole plot (numbered
+ * in execution order) and session the plan's runs carry.
+ */
+export function scheduleLaidOut(
+  plan: SchedulingInput,
+  laid: readonly LaidOutPlanRun[],
+  seed: number,
+  split: boolean,
+): { schedule: Schedule; placement: Map<string, { wholePlot: number; session: number }> } {
+  const rng = createRandom(seed);
+  const ordered = orderByWholePlots(laid, rng);
+  const sessions = plan.study.sessions;
+  const sessionLabel = sessions?.label?.trim() || DEFAULT_SESSION_LABEL;
+  const order: ScheduledRun[] = ordered.map((run, index) => ({ sequence: index + 1, point: run.point, purpose: run.purpose, session: run.session }));
+  const placement = new Map(ordered.map((run) => [run.point, { wholePlot: run.wholePlot, session: run.session }]));
+  const sessionCount = Math.max(1, ...ordered.map((run) => run.session));
+  const sizes = Array.from({ length: sessionCount }, (_, s) => ordered.filter((run) => run.session === s + 1).length);
+
+  const variedIds = new Set(plan.levels.filter((level) => level.varied).map((level) => level.id));
+  const hardFactors = plan.study.factors.filter((factor) => factor.hardToChange === true && variedIds.has(factor.id));
+  const hardIds = hardFactors.map((factor) => factor.id);
+  const byPoint = new Map(plan.runs.map((run) => [run.point, run]));
+  const sequence = order.map((entry) => byPoint.get(entry.point)!);
+  let hardToChange: Schedule['hardToChange'] = null;
+  if (hardIds.length > 0) {
+    // Every whole plot after the first is a reset, whether or not the value differs: the basis
+    // the split-plot analysis and the costs count on.
+    const resets = Math.max(0, new Set(ordered.map((run) => run.wholePlot)).size - 1);
+    const differing = countLevelChanges(sequence, hardIds);
+    const names = wordList(hardFactors.map((factor) => factor.name));
+    const plots = new Set(ordered.filter((run) => run.purpose === 'fit').map((run) => run.wholePlot)).size;
+    const fits = ordered.filter((run) => run.purpose === 'fit').length;
+    hardToChange = {
+      factors: hardIds,
+      levelChanges: resets,
+      note:
+        `${names} ${hardIds.length === 1 ? 'is' : 'are'} hard to change, so the plan is a split-plot design: ` +
+        (split
+          ? `the ${fits} fitting runs form ${plots} whole plots, each run at one setting of ${hardIds.length === 1 ? 'it' : 'them'} reset before the whole plot starts`
+          : `every fitting run is a whole plot of its own (${hardIds.length === 1 ? 'its setting is' : 'their settings are'} reset before every run)`) +
+        `; every centre replicate and every validation run is a whole plot of its own. ` +
+        `${resets} reset${resets === 1 ? '' : 's'} of the setting, one per whole plot after the first set-up (${differing} of them to a different value). ` +
+        `Reset the setting at the start of every whole plot even when it repeats the previous one: the analysis counts on it.`,
+    };
+  }
+  const centres = order.filter((run) => run.purpose === 'centre').map((run) => run.sequence);
+  const plural = `${sessionLabel.toLowerCase()}${sessionLabel.toLowerCase().endsWith('s') ? '' : 's'}`;
+  let note =
+    `Run order drawn at random from seed ${seed}: ` +
+    (hardIds.length > 0 ? `whole plots in random order within each ${sessionLabel.toLowerCase()}, runs in random order within each whole plot` : `runs in random order within each ${sessionLabel.toLowerCase()}`) +
+    (centres.length === 0 ? '' : `; centre replicates at runs ${wordList(centres.map(String))}, spread over the campaign`) +
+    '.';
+  if (sessionCount > 1) {
+    note += ` ${sessionCount} ${plural} of at most ${sessions?.maxRuns ?? Math.max(...sizes)} runs (${sizes.join(', ')}), each a block of the model; validation runs are mixed in among the others.`;
+  } else if (order.some((run) => run.purpose === 'holdout')) {
+    note += ' Validation runs are mixed in among the others.';
+  }
+  return { schedule: { seed, order, sessionCount, sessionLabel, hardToChange, note }, placement };
+}
