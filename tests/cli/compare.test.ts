@@ -62,19 +62,19 @@ describe('tierplan compare', () => {
     const result = runCli(['compare', planPath]);
     expect(result.status).toBe(0);
     const lines = result.stdout.split('\n');
-    expect(lines[2]).toMatch(/^Decision: The proposed plan needs 23 runs where the conventional full factorial needs 35: 12 fewer/);
+    expect(lines[2]).toMatch(/^Decision: The proposed plan needs 28 runs where the conventional full factorial needs 35: 7 fewer/);
     const header = lines.find((line) => line.startsWith('Plan ') && line.includes('Fit runs'))!;
     expect(header).toMatch(/Fit runs +Fits model +D-eff \[%\] +Info\/run +Info total +Avg var \[σ²\] +Min power \[%\]/);
     const rule = lines[lines.indexOf(header) + 1];
     expect(rule).toMatch(/^-+( +-+)+$/);
     // Every row of a table is as wide as its rule or narrower (aligned columns, no wrapped cells).
     for (const line of lines.slice(lines.indexOf(header), lines.indexOf(header) + 11)) expect(line.length).toBeLessThanOrEqual(rule.length);
-    expect(result.stdout).toMatch(/^Proposed +20 +yes +\d+\.\d +1\.00 +1\.00 /m); // 17 model + 3 centre runs are fitted
+    expect(result.stdout).toMatch(/^Proposed +24 +yes +\d+\.\d +1\.00 +1\.00 /m); // 21 model + 3 centre runs are fitted
     expect(result.stdout).toMatch(/^Conventional 2\^5 +35 +no, 3 terms/m);
     const costHeader = lines.find((line) => line.startsWith('Plan ') && line.includes('Cost [EUR]'))!;
     expect(costHeader).toMatch(/Runs +Off limits +Level changes +Cost \[EUR\] +Time \[h\] +Runs saved +Cost saved \[EUR\]/);
     // 35 − 23 = 12 runs, 34.3 % of 35, printed as a whole per cent (common practice).
-    expect(result.stdout).toMatch(/^Conventional 2\^5 +35 +\d+ +\d+ +29,990 +106\.4 +12 \(34 %\) +[\d,]+ \(\d+ %\)$/m);
+    expect(result.stdout).toMatch(/^Conventional 2\^5 +35 +\d+ +\d+ +29,990 +106\.4 +7 \(20 %\) +[\d,]+ \(\d+ %\)$/m);
     expect(result.stdout).toMatch(/^feed_solids\^2 +\d\.\d{3} +\d+\.\d +\d+$/m); // power: whole per cent (numberText.ts)
     expect(result.stdout).toContain('D-eff: textbook D-efficiency 100·|X\'X|^(1/p)/N, relative to an ideal orthogonal');
     expect(result.stdout).toContain('What each plan means');

@@ -141,7 +141,7 @@ describe('tierplan plan on the sample', () => {
     expect(other.stderr.trim().split('\n')).toHaveLength(1);
     const forced = runCli(['plan', sample, '--out', out, '--starts', '6', '--seed', '7', '--force']);
     expect(forced.status).toBe(0);
-  });
+  }, 180_000);
 });
 
 describe('tierplan plan --json without --out', () => {
