@@ -17,6 +17,11 @@
  *   purpose `fit`); its schedule holds the added runs only, ordered as `tierplan plan` orders
  *   runs (scheduleRuns.ts: hard-to-change grouping, sessions), numbered after the parent's last
  *   run and session, so run sheets list the added runs only and run numbers never repeat.
+ *   A parent laid out in whole plots (a split-plot plan) gives every added run a whole plot
+ *   of its own (its hard-to-change settings reset before it) in sessions of their own after
+ *   the parent's (scheduleLaidOut), so the revision is analysed with the same random
+ *   whole-plot effect and fixed sessions; its `metrics.gls` and `metrics.blocks` are recomputed
+ *   over all the fitted runs (evaluate/structuredPrecision.ts) and `splitPlot` is not carried over.
  * - `parent: { id, checksum }` names the parent plan; the comparison is not carried over.
  */
 import { InputError } from '../inputError.js';
@@ -30,7 +35,10 @@ import { compileModel } from '../model/modelMatrix.js';
 import { termLabel } from '../model/modelTerm.js';
 import { parseTerm } from '../model/termSyntax.js';
 import { buildCandidateRegion } from '../region/candidateRegion.js';
-import { scheduleRuns } from '../schedule/scheduleRuns.js';
+import { scheduleLaidOut, scheduleRuns } from '../schedule/scheduleRuns.js';
+import { equalSessionSizes, sessionCountFor } from '../schedule/sessionPlan.js';
+import { structuredPrecision } from '../evaluate/structuredPrecision.js';
+import { DEFAULT_VARIANCE_RATIO } from '../study.js';
 import type { PlanDocument } from '../plan/planDocument.js';
 
 export interface AugmentRequest {
@@ -85,7 +93,10 @@ export function augmentPlan(parent: PlanDocument, analysis: AnalysisDocument, re
   const moments = regionMoments(model, region, parent.metrics.seed);
   const lastSequence = Math.max(0, ...(parent.schedule?.order ?? []).map((run) => run.sequence));
   const lastSession = parent.schedule?.sessionCount ?? 0;
-  const ordered = scheduleRuns({ runs: added, levels: parent.levels, study: parent.study }, parent.metrics.seed + 1);
+  const laidOut = parent.runs.some((run) => run.session !== undefined);
+  const ordered = laidOut
+    ? laidOutAddition(parent, added)
+    : scheduleRuns({ runs: added, levels: parent.levels, study: parent.study }, parent.metrics.seed + 1);
   const schedule = {
     ...ordered,
     order: ordered.order.map((run) => ({ ...run, sequence: run.sequence + lastSequence, session: run.session + lastSession })),
@@ -122,8 +133,64 @@ export function augmentPlan(parent: PlanDocument, analysis: AnalysisDocument, re
     warnings: [...parent.warnings, note],
     schedule,
   };
+  if (laidOut) {
+    const figures = laidOutFigures(plan, model, runs.filter((run) => run.purpose !== 'holdout' && !notDone.has(sequenceOf.get(run.point) ?? -1)), factorIds);
+    plan.metrics.gls = figures.gls;
+    plan.metrics.blocks = figures.blocks;
+  }
   delete plan.comparison;
+  delete plan.splitPlot;
   return { plan, modelNote: note };
+}
+
+/**
+ * The added runs of a laid-out parent: one whole plot each, in the fewest sessions of at most
+ * sessions.maxRuns runs after the parent's (sizes as equal as possible), numbered on from the
+ * parent's last whole plot. Sets `wholePlot` and `session` on the added runs; returns their
+ * schedule with sessions counted from 1 (the caller shifts them after the parent's).
+ */
+function laidOutAddition(parent: PlanDocument, added: PlannedRun[]) {
+  const maxRuns = parent.study.sessions?.maxRuns ?? added.length;
+  const sizes = equalSessionSizes(added.length, sessionCountFor(added.length, maxRuns));
+  const sessionOf: number[] = sizes.flatMap((size, s) => Array.from({ length: size }, () => s));
+  const laid = added.map((run, i) => ({ point: run.point, purpose: run.purpose, wholePlot: i, session: sessionOf[i] }));
+  const { schedule, placement } = scheduleLaidOut({ runs: added, levels: parent.levels, study: parent.study }, laid, parent.metrics.seed + 1, false);
+  const lastPlot = Math.max(0, ...parent.runs.map((run) => run.wholePlot ?? 0));
+  const lastSession = parent.schedule?.sessionCount ?? 0;
+  const hard = parent.runs.some((run) => run.wholePlot !== undefined);
+  for (const run of added) {
+    const place = placement.get(run.point)!;
+    run.session = place.session + lastSession;
+    if (hard) run.wholePlot = place.wholePlot + lastPlot;
+  }
+  return schedule;
+}
+
+/** metrics.gls and metrics.blocks of a revision, over its fitted runs' whole plots and sessions. */
+function laidOutFigures(plan: PlanDocument, model: ReturnType<typeof compileModel>, fitted: PlannedRun[], factorIds: string[]) {
+  const plotKey = (run: PlannedRun, i: number) => (run.wholePlot !== undefined ? `w${run.wholePlot}` : `r${i}`);
+  const plots = new Map<string, number>();
+  const sessions = new Map<number, number>();
+  const sessionOfPlot: number[] = [];
+  const wholePlotOf = Int32Array.from(fitted, (run, i) => {
+    const key = plotKey(run, i);
+    if (!plots.has(key)) {
+      plots.set(key, plots.size);
+      const session = run.session ?? 1;
+      if (!sessions.has(session)) sessions.set(session, sessions.size);
+      sessionOfPlot.push(sessions.get(session)!);
+    }
+    return plots.get(key)!;
+  });
+  const hard = factorIds.map((id) => plan.study.factors.find((factor) => factor.id === id)?.hardToChange === true);
+  const structure = {
+    wholePlotOf,
+    sessionOfWholePlot: Int32Array.from(sessionOfPlot),
+    wholePlots: plots.size,
+    sessions: Math.max(1, sessions.size),
+    varianceRatio: plan.study.design.varianceRatio ?? DEFAULT_VARIANCE_RATIO,
+  };
+  return structuredPrecision(model, fitted.map((run) => factorIds.map((id) => run.coded[id])), structure, hard);
 }
 
 function explicitTerms(texts: string[], factorIds: string[]): { terms: Record<string, number>[]; note: string } {
