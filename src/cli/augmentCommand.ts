@@ -40,7 +40,7 @@ export function registerAugment(program: Command): void {
     const sheet = await readResultsSheet(resultsPath, parent);
     const [{ analyzeCampaign }, { augmentPlan }] = await Promise.all([import('../core/results/campaignAnalysis.js'), import('../core/results/augmentPlan.js')]);
     const analysis = analyzeCampaign(parent, sheet, { file: resultsPath, sheet: sheet.sheet, toolVersion: toolVersion() });
-    const { plan: unsealed, modelNote } = augmentPlan(parent, analysis, { runs, model });
+    const { plan: unsealed, modelNote } = augmentPlan(parent, sheet, analysis, { runs, model });
     const plan = sealPlan(unsealed);
     let written: string[] = [];
     if (options.out) {

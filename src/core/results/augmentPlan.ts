@@ -3,9 +3,11 @@
  * the runs already done (augmentDesign.ts, Dykstra 1971), for the same or an extended model.
  *
  * Conventions fixed here:
- * - Runs done: every run of the parent plan except those marked not done on its sheet,
- *   holdouts included (once analysed, their results are data like any other), at their
- *   planned coded points.
+ * - Runs done (X₀): every run of the parent plan except those marked not done on its sheet,
+ *   holdouts included (once analysed, their results are data like any other), where they
+ *   were actually made: at the as-run values the sheet records, else at the planned point
+ *   (asRunPoint.ts, the rule the analysis fits by). The revision's `runs` keep the planned
+ *   points, as the parent's sheet and plan.json show them.
  * - Candidates: the parent's candidate grid (levels, constraints, equipment limits); a grid
  *   too large to enumerate is refused.
  * - Default model extension (our rule, stated in the note): a response with significant
@@ -20,7 +22,8 @@
  * - `parent: { id, checksum }` names the parent plan; the comparison is not carried over.
  */
 import { InputError } from '../inputError.js';
-import type { AnalysisDocument } from './campaignAnalysis.js';
+import type { AnalysisDocument, SheetResults } from './campaignAnalysis.js';
+import { asRunCoded } from './asRunPoint.js';
 import { augmentDesign } from '../design/augmentDesign.js';
 import type { PlannedRun } from '../design/designTypes.js';
 import { settingsFor } from '../design/settings.js';
@@ -49,7 +52,7 @@ export interface AugmentResult {
 /** Largest number of runs one augmentation adds (a documented limit). */
 export const MAX_ADDED_RUNS = 500;
 
-export function augmentPlan(parent: PlanDocument, analysis: AnalysisDocument, request: AugmentRequest): AugmentResult {
+export function augmentPlan(parent: PlanDocument, sheet: SheetResults, analysis: AnalysisDocument, request: AugmentRequest): AugmentResult {
   if (!Number.isInteger(request.runs) || request.runs < 1 || request.runs > MAX_ADDED_RUNS) {
     throw new InputError(`--runs must be a whole number from 1 to ${MAX_ADDED_RUNS}, not ${request.runs}`);
   }
@@ -64,7 +67,9 @@ export function augmentPlan(parent: PlanDocument, analysis: AnalysisDocument, re
   const notDone = new Set(analysis.results.notDone);
   const sequenceOf = new Map((parent.schedule?.order ?? []).map((run) => [run.point, run.sequence]));
   const done = parent.runs.filter((run) => !notDone.has(sequenceOf.get(run.point) ?? -1));
-  const existing = done.map((run) => factorIds.map((id) => run.coded[id]));
+  const factorOf = new Map(parent.study.factors.map((factor) => [factor.id, factor]));
+  const asRunOf = new Map(sheet.runs.map((run) => [run.point, run.asRun]));
+  const existing = done.map((run) => asRunCoded(run, asRunOf.get(run.point) ?? {}, factorIds, factorOf));
   const result = augmentDesign(model, existing, region.points, request.runs);
   if (!result.estimable) {
     throw new InputError(

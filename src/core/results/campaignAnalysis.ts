@@ -28,7 +28,7 @@ import type { Response } from '../study.js';
 import { compileModel } from '../model/modelMatrix.js';
 import { INTERCEPT_LABEL } from '../model/modelTerm.js';
 import { parseTerm } from '../model/termSyntax.js';
-import { toCoded } from '../region/codedUnits.js';
+import { asRunCoded } from './asRunPoint.js';
 import type { AnalysisRun, ResponseAnalysis } from '../analysis/analysisTypes.js';
 import { analyzeResponse } from '../analysis/analyzeResponse.js';
 
@@ -115,10 +115,7 @@ export function analyzeCampaign(
   const analysisRun = (planned: StructuredRun, responseId: string): AnalysisRun => {
     const recorded = sheetByPoint.get(planned.point);
     if (!recorded) throw new Error(`sheet results have no run for point ${planned.point}`);
-    const coded = factorIds.map((id) => {
-      const actual = recorded.asRun[id];
-      return actual === undefined ? planned.coded[id] : toCoded(factorOf.get(id)!, actual);
-    });
+    const coded = asRunCoded(planned, recorded.asRun, factorIds, factorOf);
     const observed = recorded.notDone ? null : (recorded.results[responseId] ?? null);
     return {
       run: recorded.run,
