@@ -37,8 +37,13 @@ export function registerAugment(program: Command): void {
     if (!Number.isInteger(runs) || runs < 1) throw new InputError(`--runs must be a whole number of at least 1, not ${options.runs}`);
     const model = options.model?.split(',').map((term) => term.trim()).filter((term) => term !== '');
     const parent = await loadPlan(planPath);
+    const [{ analyzeCampaign }, { augmentPlan, checkAugmentable }] = await Promise.all([import('../core/results/campaignAnalysis.js'), import('../core/results/augmentPlan.js')]);
+    try {
+      checkAugmentable(parent);
+    } catch (error) {
+      throw error instanceof InputError ? error.inFile(planPath) : error;
+    }
     const sheet = await readResultsSheet(resultsPath, parent);
-    const [{ analyzeCampaign }, { augmentPlan }] = await Promise.all([import('../core/results/campaignAnalysis.js'), import('../core/results/augmentPlan.js')]);
     const analysis = analyzeCampaign(parent, sheet, { file: resultsPath, sheet: sheet.sheet, toolVersion: toolVersion() });
     const { plan: unsealed, modelNote } = augmentPlan(parent, sheet, analysis, { runs, model });
     const plan = sealPlan(unsealed);
