@@ -9,6 +9,8 @@ import { significantText } from '../io/numberText.js';
 export function analyzeSummary(analysis: AnalysisDocument): string {
   const lines: string[] = [];
   lines.push(`Analysis of plan ${analysis.plan.id} from ${analysis.results.file}${analysis.results.sheet ? ` (sheet ${analysis.results.sheet})` : ''}`);
+  const parent = analysis.results.parent;
+  if (parent) lines.push(`  with the runs of its parent plan ${parent.plan.id} from ${parent.file}${parent.sheet ? ` (sheet ${parent.sheet})` : ''}`);
   const all = analysis.responses.length;
   lines.push(
     analysis.summary.notYet.length === 0

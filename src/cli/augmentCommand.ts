@@ -1,7 +1,8 @@
 /**
  * `tierplan augment <plan.json> <results> --runs K [--model …]`: the runs that validation
  * asks for — K runs, D-optimal given the runs done, for the same or an extended model — as a
- * new plan revision with run sheets and worksheets for the added runs only.
+ * new plan revision with run sheets, worksheets and a report (io/revisionReport.ts) for the
+ * added runs only.
  */
 import { resolve } from 'node:path';
 import type { Command } from 'commander';
@@ -28,7 +29,7 @@ export function registerAugment(program: Command): void {
     .argument('<results>', 'the filled runsheet.xlsx or runsheet.csv of that plan')
     .requiredOption('--runs <k>', 'number of runs to add')
     .option('--model <terms>', 'model terms of the revision, comma-separated (default: the current model, extended where lack of fit or the lab points)')
-    .option('-o, --out <dir>', 'folder for the revision: plan.json, runsheet.xlsx, runsheet.csv, worksheets.html')
+    .option('-o, --out <dir>', 'folder for the revision: plan.json, runsheet.xlsx, runsheet.csv, worksheets.html and report.html (the added runs, why, the parent)')
     .option('--json', 'print the revision plan.json on stdout (writes nothing unless --out is given)')
     .option('--force', 'overwrite files of a different plan in the output folder');
   withExample(command, 'tierplan augment out/spray-dryer/plan.json samples/spray-dryer/results.xlsx --runs 4 --out out/spray-dryer-2');
@@ -37,18 +38,24 @@ export function registerAugment(program: Command): void {
     if (!Number.isInteger(runs) || runs < 1) throw new InputError(`--runs must be a whole number of at least 1, not ${options.runs}`);
     const model = options.model?.split(',').map((term) => term.trim()).filter((term) => term !== '');
     const parent = await loadPlan(planPath);
+    const [{ analyzeCampaign }, { augmentPlan, checkAugmentable }] = await Promise.all([import('../core/results/campaignAnalysis.js'), import('../core/results/augmentPlan.js')]);
+    try {
+      checkAugmentable(parent);
+    } catch (error) {
+      throw error instanceof InputError ? error.inFile(planPath) : error;
+    }
     const sheet = await readResultsSheet(resultsPath, parent);
-    const [{ analyzeCampaign }, { augmentPlan }] = await Promise.all([import('../core/results/campaignAnalysis.js'), import('../core/results/augmentPlan.js')]);
     const analysis = analyzeCampaign(parent, sheet, { file: resultsPath, sheet: sheet.sheet, toolVersion: toolVersion() });
-    const { plan: unsealed, modelNote } = augmentPlan(parent, analysis, { runs, model });
+    const { plan: unsealed, modelNote } = augmentPlan(parent, sheet, analysis, { runs, model });
     const plan = sealPlan(unsealed);
     let written: string[] = [];
     if (options.out) {
-      const [{ writeOutputSet }, { runSheetCsv }, { planWorkbook }, { labWorksheetsHtml }] = await Promise.all([
+      const [{ writeOutputSet }, { runSheetCsv }, { planWorkbook }, { labWorksheetsHtml }, { revisionReportHtml }] = await Promise.all([
         import('../io/outputSet.js'),
         import('../io/runSheetCsv.js'),
         import('../io/workbook/planWorkbook.js'),
         import('../io/labWorksheets.js'),
+        import('../io/revisionReport.js'),
       ]);
       const schedule = plan.schedule!;
       const files = [
@@ -56,6 +63,7 @@ export function registerAugment(program: Command): void {
         { name: 'runsheet.xlsx', content: await planWorkbook(plan, schedule) },
         { name: 'runsheet.csv', content: runSheetCsv(plan, schedule) },
         { name: 'worksheets.html', content: await labWorksheetsHtml(plan, schedule) },
+        { name: 'report.html', content: await revisionReportHtml(plan, parent, analysis, modelNote) },
       ];
       for (const input of [planPath, resultsPath]) {
         if (files.some((file) => resolve(options.out!, file.name) === resolve(input))) throw new InputError('is an input of the augmentation; choose another --out folder', { file: input });

@@ -98,6 +98,13 @@ export const INPUT_LIMITS = {
     why: 'an index table has 8 columns; a results sheet one per factor and response',
     kind: 'refusal',
   },
+  sheetCellLength: {
+    value: 10_000,
+    unit: 'characters',
+    appliesTo: 'one cell of a results sheet (runsheet.csv or runsheet.xlsx read by analyze and augment)',
+    why: 'a remark is a few sentences; a longer cell is a pasted file or an unclosed quote',
+    kind: 'refusal',
+  },
   nestingDepth: {
     value: 64,
     unit: 'levels',

@@ -65,7 +65,9 @@ export async function analysisReportHtml(analysis: AnalysisDocument, title: stri
     title,
     planId: analysis.plan.id,
     checksum: analysis.plan.checksum,
-    resultsFile: analysis.results.file,
+    resultsFile: analysis.results.parent
+      ? `${analysis.results.file} and, for the runs of parent plan ${analysis.results.parent.plan.id}, ${analysis.results.parent.file}`
+      : analysis.results.file,
     toolVersion: analysis.tool.version,
     headline: calibrated
       ? `Calibrated: all ${analysis.responses.length} responses predict the runs they never saw within their intervals.`

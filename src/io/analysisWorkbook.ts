@@ -49,7 +49,9 @@ export async function analysisWorkbook(analysis: AnalysisDocument): Promise<Buff
   const verdict = workbook.addWorksheet('Verdict');
   verdict.getCell('A1').value = `Analysis of plan ${analysis.plan.id}`;
   verdict.getCell('A1').font = { bold: true, size: 13 };
-  verdict.getCell('A2').value = `Results read from ${analysis.results.file}${analysis.results.sheet ? `, sheet ${analysis.results.sheet}` : ''}; plan checksum ${analysis.plan.checksum}.`;
+  const parent = analysis.results.parent;
+  const parentText = parent ? `, the runs of parent plan ${parent.plan.id} from ${parent.file}${parent.sheet ? `, sheet ${parent.sheet}` : ''}` : '';
+  verdict.getCell('A2').value = `Results read from ${analysis.results.file}${analysis.results.sheet ? `, sheet ${analysis.results.sheet}` : ''}${parentText}; plan checksum ${analysis.plan.checksum}.`;
   let row = block(
     verdict,
     4,

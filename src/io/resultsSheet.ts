@@ -24,17 +24,24 @@
  * - an as-run value outside the studied range but inside the equipment limits (the model
  *   then extrapolates).
  *
- * Limits: at most MAX_SHEET_ROWS rows and MAX_SHEET_COLUMNS columns are read.
+ * Limits: the file sizes of the README's table limits (tableFileBytes for the CSV,
+ * workbookFileBytes and workbookContentBytes for the workbook); a text cell of at most
+ * `sheetCellLength` characters, refused with its cell named; at most MAX_SHEET_ROWS rows and
+ * MAX_SHEET_COLUMNS columns are read (the run table of the largest plan the study limits allow
+ * lies far inside). Cell contents quoted in messages are cut to an excerpt.
  */
 import { readFile } from 'node:fs/promises';
 import { extname } from 'node:path';
 import ExcelJS from 'exceljs';
 import { parse } from 'csv-parse/sync';
-import { InputError } from '../core/inputError.js';
+import { excerpt, InputError } from '../core/inputError.js';
+import { aboveLimit, checkLimit, limitOf } from '../core/inputLimits.js';
 import type { PlanDocument } from '../core/plan/planDocument.js';
 import type { SheetResults, SheetRun } from '../core/results/campaignAnalysis.js';
 import { IDENTITY_LABELS, NOT_DONE_WORD, runSheetTable, type RunSheetColumn } from './runSheetTable.js';
 import { SHEET_NAMES } from './workbook/planWorkbook.js';
+import { checkReadableFile, fileSystemProblem, megabytes } from './tableRows.js';
+import { zipContentSize } from './zipContentSize.js';
 
 export const MAX_SHEET_ROWS = 10000;
 export const MAX_SHEET_COLUMNS = 500;
@@ -88,11 +95,15 @@ export async function readResultsSheet(path: string, plan: PlanDocument): Promis
   if (extension !== '.xlsx' && extension !== '.csv') {
     throw new InputError('results must be the run sheet as .xlsx or .csv, as `tierplan plan` wrote it', { file: path });
   }
+  // The table limits of the README apply: a workbook is unpacked whole in memory, so it gets the smaller one.
+  const size = await checkReadableFile(path, path);
+  const sizeLimit = extension === '.xlsx' ? 'workbookFileBytes' : 'tableFileBytes';
+  if (size > limitOf(sizeLimit)) throw new InputError(`is ${megabytes(size)}, ${aboveLimit(sizeLimit)}`, { file: path });
   let content: Buffer;
   try {
     content = await readFile(path);
   } catch (error) {
-    throw new InputError(`cannot read the results (${(error as NodeJS.ErrnoException).code ?? 'error'})`, { file: path });
+    throw new InputError(fileSystemProblem(error), { file: path });
   }
   const grid = extension === '.xlsx' ? await workbookGrid(content, path) : csvGrid(content, path);
   return { ...checkedResults(grid, plan, path), sheet: grid.sheet, format: extension === '.xlsx' ? 'xlsx' : 'csv' };
@@ -111,6 +122,11 @@ export function columnLetters(index: number): string {
 }
 
 async function workbookGrid(content: Buffer, path: string): Promise<CellGrid> {
+  const unpacked = zipContentSize(content);
+  if (unpacked !== null && unpacked > limitOf('workbookContentBytes')) {
+    const shown = Number.isFinite(unpacked) ? megabytes(unpacked) : 'more than 4 GB';
+    throw new InputError(`unpacks to ${shown}, ${aboveLimit('workbookContentBytes')}`, { file: path });
+  }
   const workbook = new ExcelJS.Workbook();
   try {
     await workbook.xlsx.load(content as unknown as ArrayBuffer);
@@ -128,7 +144,9 @@ async function workbookGrid(content: Buffer, path: string): Promise<CellGrid> {
     for (let c = 1; c <= columns; c++) {
       const cell = row.getCell(c);
       // A merged range holds its value in its first cell only.
-      values.push(cell.isMerged && cell.master !== cell ? null : plainValue(cell.value));
+      const value = cell.isMerged && cell.master !== cell ? null : plainValue(cell.value);
+      checkCellLength(value, { file: `${path}, sheet ${SHEET_NAMES.runSheet}`, row: r, column: columnLetters(c - 1) });
+      values.push(value);
     }
     cells.push(values);
   }
@@ -141,7 +159,8 @@ function plainValue(value: ExcelJS.CellValue): CellValue {
   if (typeof value === 'number') return value;
   if (typeof value === 'string') return value.trim() === '' ? null : value.trim();
   if (typeof value === 'boolean') return String(value);
-  if (value instanceof Date) return value.toISOString();
+  // A number under a date format that is no date (1e308) reads back as an invalid Date.
+  if (value instanceof Date) return Number.isNaN(value.getTime()) ? 'an invalid date' : value.toISOString();
   if (typeof value === 'object') {
     if ('richText' in value) return plainValue(value.richText.map((part) => part.text).join(''));
     if ('result' in value) return plainValue((value.result ?? null) as ExcelJS.CellValue);
@@ -163,12 +182,16 @@ function csvGrid(content: Buffer, path: string): CellGrid {
     }) as unknown as { record: string[]; info: { lines: number } }[];
   } catch (error) {
     const line = (error as { lines?: number }).lines;
-    throw new InputError(`is not readable CSV (${(error as Error).message.split('\n')[0]})`, { file: path, row: line });
+    throw new InputError(`is not readable CSV (${excerpt((error as Error).message.split('\n')[0], 160)})`, { file: path, row: line });
   }
-  const cells = records.map(({ record }) =>
-    record.slice(0, MAX_SHEET_COLUMNS).map((text) => (text.trim() === '' ? null : text.trim())),
-  );
   const lines = records.map(({ info }) => info.lines);
+  const cells = records.map(({ record }, r) =>
+    record.slice(0, MAX_SHEET_COLUMNS).map((text, c) => {
+      const value = text.trim() === '' ? null : text.trim();
+      checkCellLength(value, { file: path, row: lines[r], column: columnLetters(c) });
+      return value;
+    }),
+  );
   return { sheet: null, cells, rowNumber: (r) => lines[r] ?? r + 1 };
 }
 
@@ -221,7 +244,7 @@ function checkedResults(grid: CellGrid, plan: PlanDocument, path: string): Sheet
   checkIdentity(grid, identityRows, IDENTITY_LABELS.checksum, plan.checksum, 'checksum', where, false);
   if (tableRow < 0) {
     throw new InputError(
-      `no run table with the columns of plan ${plan.planId} (${expected.columns.map((column) => column.header).join(', ')}): a column was renamed or removed, or this is another plan's sheet`,
+      `no run table with the columns of plan ${plan.planId} (${excerpt(expected.columns.map((column) => column.header).join(', '), 200)}): a column was renamed or removed, or this is another plan's sheet`,
       { file: grid.sheet ? `${path}, sheet ${grid.sheet}` : path },
     );
   }
@@ -245,7 +268,7 @@ function checkedResults(grid: CellGrid, plan: PlanDocument, path: string): Sheet
     const runNumber = numberIn(runCell);
     const expectedIndex = runNumber === null ? undefined : expectedByRun.get(runNumber);
     if (runNumber === null || expectedIndex === undefined) {
-      throw new InputError(`run number ${runCell} is not a run of plan ${plan.planId}`, where(r, runColumn.index, runColumn.column));
+      throw new InputError(`run number ${cellText(runCell)} is not a run of plan ${plan.planId}`, where(r, runColumn.index, runColumn.column));
     }
     if (seen.has(runNumber)) {
       throw new InputError(`run ${runNumber} is listed twice (also on row ${seen.get(runNumber)})`, where(r, runColumn.index, runColumn.column));
@@ -268,7 +291,7 @@ function checkedResults(grid: CellGrid, plan: PlanDocument, path: string): Sheet
       switch (entry.role) {
         case 'point':
           if (String(value ?? '') !== String(expectedValue)) {
-            throw new InputError(`run ${runNumber} is point ${expectedValue} in plan ${plan.planId}, the sheet says ${value ?? 'nothing'}`, at);
+            throw new InputError(`run ${runNumber} is point ${expectedValue} in plan ${plan.planId}, the sheet says ${cellText(value)}`, at);
           }
           break;
         case 'setPoint': {
@@ -276,7 +299,7 @@ function checkedResults(grid: CellGrid, plan: PlanDocument, path: string): Sheet
           const decimals = entry.column.decimals ?? 0;
           if (shown === null || Number(shown.toFixed(decimals)) !== Number((expectedValue as number).toFixed(decimals))) {
             throw new InputError(
-              `the set-point of run ${runNumber} was ${expectedValue}, the sheet says ${value ?? 'nothing'}: never change a set-point; write the value actually set in the "as run" column`,
+              `the set-point of run ${runNumber} was ${expectedValue}, the sheet says ${cellText(value)}: never change a set-point; write the value actually set in the "as run" column`,
               at,
             );
           }
@@ -287,7 +310,7 @@ function checkedResults(grid: CellGrid, plan: PlanDocument, path: string): Sheet
           const id = entry.column.id!;
           const factor = factors.get(id)!;
           const actual = numberIn(value);
-          if (actual === null) throw new InputError(`"${value}" is not a number: write the value actually set of ${factor.name}, or leave it blank`, at);
+          if (actual === null) throw new InputError(`"${cellText(value)}" is not a number: write the value actually set of ${factor.name}, or leave it blank`, at);
           if (factor.limits && (actual < factor.limits.low || actual > factor.limits.high)) {
             throw new InputError(
               `as run ${actual} ${factor.unit} lies outside the equipment limits ${factor.limits.low}–${factor.limits.high} of ${factor.name}: check the entry; a run outside the limits is not analysed`,
@@ -309,7 +332,7 @@ function checkedResults(grid: CellGrid, plan: PlanDocument, path: string): Sheet
           }
           const measured = numberIn(value);
           if (measured === null) {
-            throw new InputError(`"${value}" is not a number: write the result as a number (decimal point) or leave it blank; comments go under Remarks`, at);
+            throw new InputError(`"${cellText(value)}" is not a number: write the result as a number (decimal point) or leave it blank; comments go under Remarks`, at);
           }
           results[id] = measured;
           break;
@@ -324,13 +347,13 @@ function checkedResults(grid: CellGrid, plan: PlanDocument, path: string): Sheet
   const missing = [...expectedByRun.keys()].filter((run) => !seen.has(run));
   if (missing.length > 0) {
     throw new InputError(
-      `run${missing.length === 1 ? '' : 's'} ${missing.join(', ')} of plan ${plan.planId} ${missing.length === 1 ? 'is' : 'are'} missing from the table: keep every row, mark a run that could not be done "${NOT_DONE_WORD}" in Remarks`,
+      `run${missing.length === 1 ? '' : 's'} ${listed(missing)} of plan ${plan.planId} ${missing.length === 1 ? 'is' : 'are'} missing from the table: keep every row, mark a run that could not be done "${NOT_DONE_WORD}" in Remarks`,
       where(tableRow),
     );
   }
   for (const response of responses) {
     const runsBlank = blank.get(response.id);
-    if (runsBlank) warnings.push(`${response.name}: no result for run${runsBlank.length === 1 ? '' : 's'} ${runsBlank.join(', ')}; fitted on the runs that have one`);
+    if (runsBlank) warnings.push(`${response.name}: no result for run${runsBlank.length === 1 ? '' : 's'} ${listed(runsBlank)}; fitted on the runs that have one`);
   }
   return { planId: plan.planId, checksum: plan.checksum, runs, warnings };
 }
@@ -354,13 +377,28 @@ function checkIdentity(
     const value = offset < 0 ? null : String(cells[c]);
     if (value !== expected) {
       throw new InputError(
-        `${what} ${value ?? '(empty)'} is not the ${what} of this plan.json (${expected}): these results belong to another plan`,
+        `${what} ${value === null ? '(empty)' : excerpt(value, 80)} is not the ${what} of this plan.json (${expected}): these results belong to another plan`,
         where(r, c),
       );
     }
     return;
   }
   if (required) throw new InputError(`no "${label}" above the run table: is this a run sheet tierplan wrote?`, where(0));
+}
+
+/** Refuses a text cell longer than the `sheetCellLength` limit (a pasted file, not a remark). */
+function checkCellLength(value: CellValue, location: { file: string; row: number; column: string }): void {
+  if (typeof value === 'string') checkLimit('sheetCellLength', value.length, location, 'characters in one cell');
+}
+
+/** Run numbers for a one-line message: the first ten, then how many more. */
+function listed(runs: readonly number[]): string {
+  return runs.length <= 10 ? runs.join(', ') : `${runs.slice(0, 10).join(', ')} and ${runs.length - 10} more`;
+}
+
+/** A cell's content short enough to quote in a one-line message. */
+function cellText(value: CellValue | undefined): string {
+  return value === null || value === undefined ? 'nothing' : excerpt(String(value));
 }
 
 /** A number typed in a cell: a spreadsheet number, or text in plain decimal notation. */

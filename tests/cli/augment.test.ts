@@ -38,7 +38,7 @@ describe('tierplan augment', () => {
     const result = runCli(['augment', planPath, xlsx, '--runs', '4', '--out', out]);
     expect(result.stderr).toBe('');
     expect(result.status).toBe(0);
-    expect(readdirSync(out).sort()).toEqual(['plan.json', 'runsheet.csv', 'runsheet.xlsx', 'worksheets.html']);
+    expect(readdirSync(out).sort()).toEqual(['plan.json', 'report.html', 'runsheet.csv', 'runsheet.xlsx', 'worksheets.html']);
     const parent = JSON.parse(readFileSync(planPath, 'utf8'));
     const revision = JSON.parse(readFileSync(join(out, 'plan.json'), 'utf8'));
     expect(revision.planId).not.toBe(parent.planId);
@@ -64,6 +64,33 @@ describe('tierplan augment', () => {
     const rows = (parse(text.slice(text.indexOf('\r\n\r\n') + 4)) as string[][]).slice(1);
     expect(rows.slice(1).map((row) => row[rows[0].indexOf('Point')]).sort()).toEqual(['A01', 'A02', 'A03', 'A04']);
     expect(rows.slice(1).map((row) => Number(row[0])).sort((a, b) => a - b)).toEqual([1, 2, 3, 4].map((i) => parent.runs.length + i));
+  });
+
+  it('writes report.html for the revision: the parent, why runs were added, the added runs and their settings', () => {
+    const out = join(work, 'revision');
+    const parent = JSON.parse(readFileSync(planPath, 'utf8'));
+    const revision = JSON.parse(readFileSync(join(out, 'plan.json'), 'utf8'));
+    const html = readFileSync(join(out, 'report.html'), 'utf8');
+    expect(html).toContain(`<h1>Added runs: a revision of plan ${parent.planId}</h1>`);
+    expect(html).toContain(`revision of plan ${parent.planId} (checksum ${parent.checksum})`);
+    expect(html).toContain(`Plan ${revision.planId} adds 4 runs to plan ${parent.planId}`);
+    // Why: the parent's verdict per response and the model note, as the command printed it.
+    expect(html).toContain(`Verdict of plan ${parent.planId}`);
+    const analysis = JSON.parse(runCli(['analyze', planPath, xlsx, '--json']).stdout);
+    for (const response of analysis.responses) expect(html).toContain(`verdict-${response.verdict === 'calibrated' ? 'calibrated' : 'not-yet'}">${response.verdict}<`);
+    const note = revision.warnings.at(-1) as string;
+    expect(html).toContain(note.charAt(0).toUpperCase() + note.slice(1).replace(/'/g, '&#x27;').replace(/"/g, '&quot;'));
+    // The added runs in run order, each with its point and settings, and the safety caution.
+    const rows = [...html.matchAll(/<tr><td class="num">(\d+)<\/td><td class="num">\d+<\/td><td>(A\d+)<\/td>((?:<td class="num">[^<]*<\/td>)+)<\/tr>/g)];
+    expect(rows.map((row) => row[2]).sort()).toEqual(['A01', 'A02', 'A03', 'A04']);
+    expect(rows.map((row) => Number(row[1]))).toEqual(revision.schedule.order.map((run: { sequence: number }) => run.sequence));
+    const varied = revision.levels.filter((level: { varied: boolean }) => level.varied);
+    for (const row of rows) {
+      const run = revision.runs.find((r: { point: string }) => r.point === row[2]);
+      const cells = [...row[3].matchAll(/<td class="num">([^<]*)<\/td>/g)].map((cell) => Number(cell[1]));
+      expect(cells).toEqual(varied.map((level: { id: string }) => expect.closeTo(run.settings[level.id], 6)));
+    }
+    expect(html).toContain('Caution before starting');
   });
 
   it('takes an explicit model, and refuses a run count below one', () => {

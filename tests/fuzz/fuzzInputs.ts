@@ -10,6 +10,7 @@
  */
 import fc from 'fast-check';
 import { stringify } from 'yaml';
+import type { ResultsSheetCase } from './resultsSheetInputs.js';
 
 export type FileContent = string | Uint8Array | { xlsx: (string | number | null)[][] };
 /** Relative path → content; `entry` is the study file the pipeline starts from. */
@@ -20,6 +21,8 @@ export interface FuzzFiles {
   mutations: string[];
   /** For a plan-file case: the changes to make to the plan once it exists (see `mutatePlan`). */
   planMutations?: Mutation[];
+  /** For a results-sheet case: the sheet to write and how to break it (resultsSheetInputs.ts). */
+  resultsSheet?: ResultsSheetCase;
 }
 
 type Json = null | boolean | number | string | Json[] | { [key: string]: Json };

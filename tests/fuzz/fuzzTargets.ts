@@ -5,9 +5,14 @@
  * a case takes a fraction of a second) and compare; or, for `plan file`, read a plan.json
  * that was broken after planning (and sealed again, so that its checksum matches) and compare.
  *
- * To fuzz a new reader (a results sheet for `tierplan analyze`, say): add a MutatedPart to
- * fuzzInputs.ts that writes and breaks that file, and an entry here whose `run` reads it the
- * way the command does. fuzzCase.ts, the suite test and `npm run fuzz` need no change.
+ * `results sheet`: a filled runsheet.csv or runsheet.xlsx as tierplan writes it, broken
+ * (resultsSheetInputs.ts), read and analysed as `tierplan analyze` does (readResultsSheet,
+ * then analyzeCampaign).
+ *
+ * To fuzz a new reader: add an arbitrary that writes and breaks that file (a MutatedPart of
+ * fuzzInputs.ts, or a module of its own like resultsSheetInputs.ts), and an entry here whose
+ * `run` reads it the way the command does. fuzzCase.ts, the suite test and `npm run fuzz`
+ * need no change.
  */
 import { writeFileSync } from 'node:fs';
 import type fc from 'fast-check';
@@ -16,7 +21,10 @@ import { buildPlan } from '../../src/core/plan/buildPlan.js';
 import { buildComparison } from '../../src/core/compare/buildComparison.js';
 import type { PlanDocument } from '../../src/core/plan/planDocument.js';
 import { checkedPlan, planJson, readPlanJson, sealPlan } from '../../src/io/planFile.js';
+import { readResultsSheet } from '../../src/io/resultsSheet.js';
+import { analyzeCampaign } from '../../src/core/results/campaignAnalysis.js';
 import { fuzzFilesArbitrary, mutatePlan, type FuzzFiles } from './fuzzInputs.js';
+import { describeMutation, resultsFuzzPlan, resultsSheetCaseArbitrary, writeResultsSheet } from './resultsSheetInputs.js';
 
 export interface FuzzTarget {
   name: string;
@@ -46,9 +54,28 @@ async function planThenCompare(folder: string, entry: string, input: FuzzFiles):
   return `${comparison.comparators.length} comparison rows`;
 }
 
+/** Writes the broken run sheet, then reads and analyses it as `tierplan analyze plan.json <sheet>` does. */
+async function readAndAnalyze(folder: string, _entry: string, input: FuzzFiles): Promise<string> {
+  const sheetCase = input.resultsSheet!;
+  const plan = resultsFuzzPlan();
+  const path = `${folder}/runsheet.${sheetCase.format}`;
+  writeFileSync(path, await writeResultsSheet(plan, sheetCase));
+  const sheet = await readResultsSheet(path, plan);
+  const analysis = analyzeCampaign(plan, sheet, { file: path, sheet: sheet.sheet, toolVersion: 'fuzz' });
+  return `${analysis.results.runs} runs read, verdicts ${analysis.responses.map((response) => response.verdict).join(', ')}`;
+}
+
+const resultsSheetInputs: fc.Arbitrary<FuzzFiles> = resultsSheetCaseArbitrary.map((sheetCase) => ({
+  files: {},
+  entry: `runsheet.${sheetCase.format}`,
+  mutations: [`${sheetCase.format}`, ...sheetCase.mutations.map(describeMutation)],
+  resultsSheet: sheetCase,
+}));
+
 export const FUZZ_TARGETS: readonly FuzzTarget[] = [
   { name: 'study file', inputs: fuzzFilesArbitrary('study'), run: readAndPlan },
   { name: 'index table', inputs: fuzzFilesArbitrary('indices'), run: readAndPlan },
   { name: 'interaction table', inputs: fuzzFilesArbitrary('interactions'), run: readAndPlan },
   { name: 'plan file', inputs: fuzzFilesArbitrary('plan'), run: planThenCompare },
+  { name: 'results sheet', inputs: resultsSheetInputs, run: readAndAnalyze },
 ];

@@ -1,7 +1,8 @@
 /**
  * Fuzzing in the suite: generated and mutated study files, index tables and interaction tables
- * (fuzzInputs.ts) go through the readers, the tiers and the planner, and plan files broken
- * after planning through the comparison (fuzzTargets.ts). Property:
+ * (fuzzInputs.ts) go through the readers, the tiers and the planner, plan files broken
+ * after planning through the comparison, and filled run sheets (CSV and workbook) broken
+ * cell by cell through the results reader and the analysis (fuzzTargets.ts). Property:
  * each case ends in a valid plan or an InputError with a location on one line, within
  * CASE_BOUND_MS. Fixed seed and case count, so the suite is reproducible and within its time
  * budget (about 20 s on 2 cores); `npm run fuzz -- --cases N --seed S` runs the same harness
@@ -13,8 +14,8 @@ import { FUZZ_TARGETS } from './fuzzTargets.js';
 import { runFuzzCase } from './fuzzCase.js';
 
 const SEED = 20260417;
-/** Cases per target; a plan-file case plans first, so it gets fewer. */
-const CASES: Record<string, number> = { 'plan file': 300 };
+/** Cases per target; a plan-file case plans first and a results-sheet case writes a workbook, so they get fewer. */
+const CASES: Record<string, number> = { 'plan file': 300, 'results sheet': 40 };
 const DEFAULT_CASES = 600;
 /** A case is a small study: it plans in tens of milliseconds, so seconds mean a hang. */
 const CASE_BOUND_MS = 10_000;

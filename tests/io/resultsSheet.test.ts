@@ -12,6 +12,7 @@ import { describe, expect, it } from 'vitest';
 import { scheduleRuns } from '../../src/core/schedule/scheduleRuns.js';
 import { InputError } from '../../src/core/inputError.js';
 import { columnLetters, readResultsSheet } from '../../src/io/resultsSheet.js';
+import { limitOf } from '../../src/core/inputLimits.js';
 import { runSheetTable } from '../../src/io/runSheetTable.js';
 import { filledCsv, filledWorkbook, inventedResults } from '../../samples/spray-dryer/makeResults.js';
 import { sprayDryerPlan } from '../fixtures/plan/sprayDryerPlan.js';
@@ -127,6 +128,30 @@ describe('results read back from the CSV run sheet', () => {
     expect(Object.values(read.runs[1].results).every((value) => value === null)).toBe(true);
   });
 
+  it('reads a remark at the cell-length limit and refuses one character more, naming the cell', async () => {
+    const c = column('remarks');
+    const limit = limitOf('sheetCellLength');
+    const read = await readResultsSheet(write('long-ok.csv', tampered(0, c, `"${'r'.repeat(limit)}"`)), plan);
+    expect(read.runs).toHaveLength(plan.runs.length);
+    const error = await refusal(readResultsSheet(write('long.csv', tampered(0, c, `"${'r'.repeat(limit + 1)}"`)), plan));
+    expect(error.describe()).toBe(
+      `${join(dir, 'long.csv')}, row ${headerLine + 2}, column ${columnLetters(c)}: ${limit + 1} characters in one cell is above the limit of ${limit} characters (see "Limits" in the README)`,
+    );
+  });
+
+  it('quotes a long wrong value as an excerpt, so the message stays one short line', async () => {
+    const c = column('response', 'yield');
+    const error = await refusal(readResultsSheet(write('wordy.csv', tampered(0, c, `"${'about eighty '.repeat(300)}"`)), plan));
+    expect(error.message).toMatch(/^"about eighty about eighty .{20,60}…" is not a number/);
+    expect(error.describe().length).toBeLessThan(400);
+  });
+
+  it('refuses a CSV beyond the table file-size limit before parsing it', async () => {
+    const path = write('huge.csv', `${csv}${' '.repeat(limitOf('tableFileBytes'))}`);
+    const error = await refusal(readResultsSheet(path, plan));
+    expect(error.message).toMatch(/^is 33\.6 MB, above the limit of 32 MiB \(see "Limits" in the README\)$/);
+  });
+
   const asRun = table.columns.find((c) => (c.kind as string) === 'asRun');
   it.skipIf(asRun === undefined)('refuses an as-run value outside the equipment limits (sheets with "as run" columns)', async () => {
     const c = table.columns.indexOf(asRun!);
@@ -140,6 +165,24 @@ describe('results read back from the CSV run sheet', () => {
 describe('results read back from the workbook run sheet', () => {
   const plan = fixturePlan();
   const table = runSheetTable(plan, plan.schedule!);
+
+  it('refuses a number under a date format that is no date as "not a number", not as a crash', async () => {
+    const workbook = new ExcelJS.Workbook();
+    await workbook.xlsx.load((await filledWorkbook(plan)) as unknown as ArrayBuffer);
+    const sheet = workbook.getWorksheet('Run sheet')!;
+    const c = table.columns.findIndex((column) => column.kind === 'response' && column.id === 'yield');
+    let firstRun = 0;
+    sheet.eachRow((row, number) => {
+      if (firstRun === 0 && row.getCell(1).value === 1) firstRun = number;
+    });
+    const cell = sheet.getCell(firstRun, c + 1);
+    cell.value = 1e308;
+    cell.style = { ...cell.style, numFmt: 'yyyy-mm-dd' };
+    const path = join(dir, 'date.xlsx');
+    writeFileSync(path, Buffer.from(await workbook.xlsx.writeBuffer()));
+    const error = await refusal(readResultsSheet(path, plan));
+    expect(error.describe()).toMatch(new RegExp(`date\\.xlsx, sheet Run sheet, row ${firstRun}, column ${columnLetters(c)} \\(Powder yield \\[%\\]\\): "an invalid date" is not a number`));
+  });
 
   it('reads the filled workbook and refuses a changed set-point cell by sheet, row and column', async () => {
     const buffer = await filledWorkbook(plan);

@@ -3,9 +3,11 @@
  * the runs already done (augmentDesign.ts, Dykstra 1971), for the same or an extended model.
  *
  * Conventions fixed here:
- * - Runs done: every run of the parent plan except those marked not done on its sheet,
- *   holdouts included (once analysed, their results are data like any other), at their
- *   planned coded points.
+ * - Runs done (X₀): every run of the parent plan except those marked not done on its sheet,
+ *   holdouts included (once analysed, their results are data like any other), where they
+ *   were actually made: at the as-run values the sheet records, else at the planned point
+ *   (asRunPoint.ts, the rule the analysis fits by). The revision's `runs` keep the planned
+ *   points, as the parent's sheet and plan.json show them.
  * - Candidates: the parent's candidate grid (levels, constraints, equipment limits); a grid
  *   too large to enumerate is refused.
  * - Default model extension (our rule, stated in the note): a response with significant
@@ -25,7 +27,8 @@
  * - `parent: { id, checksum }` names the parent plan; the comparison is not carried over.
  */
 import { InputError } from '../inputError.js';
-import type { AnalysisDocument } from './campaignAnalysis.js';
+import type { AnalysisDocument, SheetResults } from './campaignAnalysis.js';
+import { asRunCoded } from './asRunPoint.js';
 import { augmentDesign } from '../design/augmentDesign.js';
 import type { PlannedRun } from '../design/designTypes.js';
 import { settingsFor } from '../design/settings.js';
@@ -57,10 +60,21 @@ export interface AugmentResult {
 /** Largest number of runs one augmentation adds (a documented limit). */
 export const MAX_ADDED_RUNS = 500;
 
-export function augmentPlan(parent: PlanDocument, analysis: AnalysisDocument, request: AugmentRequest): AugmentResult {
+/** Refuses to augment a revision: its added runs would repeat point ids, and its analysis needs every ancestor's sheet. */
+export function checkAugmentable(plan: PlanDocument): void {
+  if (plan.parent) {
+    throw new InputError(
+      `plan ${plan.planId} is itself a revision of plan ${plan.parent.id}: augmenting a revision is not supported; augment plan ${plan.parent.id} again with more --runs instead`,
+      { key: 'parent' },
+    );
+  }
+}
+
+export function augmentPlan(parent: PlanDocument, sheet: SheetResults, analysis: AnalysisDocument, request: AugmentRequest): AugmentResult {
   if (!Number.isInteger(request.runs) || request.runs < 1 || request.runs > MAX_ADDED_RUNS) {
     throw new InputError(`--runs must be a whole number from 1 to ${MAX_ADDED_RUNS}, not ${request.runs}`);
   }
+  checkAugmentable(parent);
   const varied = parent.levels.filter((level) => level.varied);
   const factorIds = varied.map((level) => level.id);
   const { terms, note } = request.model ? explicitTerms(request.model, factorIds) : extendedTerms(parent, analysis, factorIds);
@@ -69,10 +83,12 @@ export function augmentPlan(parent: PlanDocument, analysis: AnalysisDocument, re
 
   const region = buildCandidateRegion(parent.study.factors, parent.levels, parent.study.constraints, { seed: parent.metrics.seed });
   if (!region.points) throw new InputError(`the candidate grid of plan ${parent.planId} has ${region.gridSize} points, too many to augment from; use fewer levels`);
-  const notDone = new Set(analysis.results.notDone);
-  const sequenceOf = new Map((parent.schedule?.order ?? []).map((run) => [run.point, run.sequence]));
-  const done = parent.runs.filter((run) => !notDone.has(sequenceOf.get(run.point) ?? -1));
-  const existing = done.map((run) => factorIds.map((id) => run.coded[id]));
+  // By point, from the sheet: a revision's schedule numbers its added runs only.
+  const notDone = new Set(sheet.runs.filter((run) => run.notDone).map((run) => run.point));
+  const done = parent.runs.filter((run) => !notDone.has(run.point));
+  const factorOf = new Map(parent.study.factors.map((factor) => [factor.id, factor]));
+  const asRunOf = new Map(sheet.runs.map((run) => [run.point, run.asRun]));
+  const existing = done.map((run) => asRunCoded(run, asRunOf.get(run.point) ?? {}, factorIds, factorOf));
   const result = augmentDesign(model, existing, region.points, request.runs);
   if (!result.estimable) {
     throw new InputError(
@@ -88,7 +104,7 @@ export function augmentPlan(parent: PlanDocument, analysis: AnalysisDocument, re
   });
 
   const runs = [...parent.runs, ...added];
-  const fitted = runs.filter((run) => run.purpose !== 'holdout' && !notDone.has(sequenceOf.get(run.point) ?? -1)).map((run) => factorIds.map((id) => run.coded[id]));
+  const fitted = runs.filter((run) => run.purpose !== 'holdout' && !notDone.has(run.point)).map((run) => factorIds.map((id) => run.coded[id]));
   const fitRuns = runs.filter((run) => run.purpose === 'fit').map((run) => factorIds.map((id) => run.coded[id]));
   const moments = regionMoments(model, region, parent.metrics.seed);
   const lastSequence = Math.max(0, ...(parent.schedule?.order ?? []).map((run) => run.sequence));
@@ -134,7 +150,7 @@ export function augmentPlan(parent: PlanDocument, analysis: AnalysisDocument, re
     schedule,
   };
   if (laidOut) {
-    const figures = laidOutFigures(plan, model, runs.filter((run) => run.purpose !== 'holdout' && !notDone.has(sequenceOf.get(run.point) ?? -1)), factorIds);
+    const figures = laidOutFigures(plan, model, runs.filter((run) => run.purpose !== 'holdout' && !notDone.has(run.point)), factorIds);
     plan.metrics.gls = figures.gls;
     plan.metrics.blocks = figures.blocks;
   }

@@ -4,7 +4,8 @@
  * and its fitted polynomial's Sobol' indices set beside the indices the plan started from.
  *
  * Inputs are plain data: the plan document and the checked sheet (`SheetResults`, read by
- * src/io/resultsSheet.ts). Per response, `analyzeResponse` does the statistics.
+ * src/io/resultsSheet.ts; for a plan revision, the parent's sheet and the added runs' sheet
+ * combined by revisionResults.ts). Per response, `analyzeResponse` does the statistics.
  *
  * Conventions fixed here:
  * - Coded units are those of the plan (low → −1, high → +1 over the study range). A run's
@@ -28,7 +29,7 @@ import type { Response } from '../study.js';
 import { compileModel } from '../model/modelMatrix.js';
 import { INTERCEPT_LABEL } from '../model/modelTerm.js';
 import { parseTerm } from '../model/termSyntax.js';
-import { toCoded } from '../region/codedUnits.js';
+import { asRunCoded } from './asRunPoint.js';
 import type { AnalysisRun, ResponseAnalysis } from '../analysis/analysisTypes.js';
 import { analyzeResponse } from '../analysis/analyzeResponse.js';
 
@@ -87,7 +88,8 @@ export interface AnalysisDocument {
   formatVersion: 1;
   tool: { name: 'tierplan'; version: string };
   plan: { id: string; checksum: string };
-  results: { file: string; sheet: string | null; runs: number; notDone: number[] };
+  /** `parent`: for a plan revision, the parent plan whose sheet gave the parent's runs. */
+  results: { file: string; sheet: string | null; runs: number; notDone: number[]; parent?: { plan: { id: string; checksum: string }; file: string; sheet: string | null } };
   responses: CampaignResponse[];
   /** calibrated when every response is. */
   summary: { calibrated: string[]; notYet: string[] };
@@ -100,7 +102,7 @@ export interface AnalysisDocument {
 export function analyzeCampaign(
   plan: PlanDocument,
   sheet: SheetResults,
-  source: { file: string; sheet: string | null; toolVersion: string },
+  source: { file: string; sheet: string | null; toolVersion: string; parent?: AnalysisDocument['results']['parent'] },
 ): AnalysisDocument {
   const varied = plan.levels.filter((level) => level.varied);
   const factorIds = varied.map((level) => level.id);
@@ -114,10 +116,7 @@ export function analyzeCampaign(
   const analysisRun = (planned: PlannedRun, responseId: string): AnalysisRun => {
     const recorded = sheetByPoint.get(planned.point);
     if (!recorded) throw new Error(`sheet results have no run for point ${planned.point}`);
-    const coded = factorIds.map((id) => {
-      const actual = recorded.asRun[id];
-      return actual === undefined ? planned.coded[id] : toCoded(factorOf.get(id)!, actual);
-    });
+    const coded = asRunCoded(planned, recorded.asRun, factorIds, factorOf);
     const observed = recorded.notDone ? null : (recorded.results[responseId] ?? null);
     return {
       run: recorded.run,
@@ -157,6 +156,7 @@ export function analyzeCampaign(
       sheet: source.sheet,
       runs: sheet.runs.length,
       notDone: sheet.runs.filter((run) => run.notDone).map((run) => run.run),
+      ...(source.parent ? { parent: source.parent } : {}),
     },
     responses,
     summary: {
