@@ -33,6 +33,7 @@ import {
   ABSENT,
   countOf,
   countText,
+  fixedText,
   efficiencyText,
   hoursText,
   indexText,
@@ -281,6 +282,8 @@ export async function managerReportHtml(plan: PlanDocument, schedule: Schedule |
       runsNote: plan.metrics.runsNote,
       fitRuns: String(plan.metrics.N),
       centreRuns: countOf(centreRuns, 'centre repeat'),
+      gls: plan.metrics.gls?.logDetPerRun != null ? `${fixedText(plan.metrics.gls.logDetPerRun, 3)} (η = ${plan.metrics.gls.varianceRatio})` : null,
+      blocks: plan.metrics.blocks && plan.metrics.blocks.sessions > 1 ? `${ratioText(plan.metrics.blocks.informationKept)} over ${plan.metrics.blocks.sessions} sessions (1 = nothing lost)` : null,
     },
   });
 }

@@ -196,7 +196,7 @@ const designSchema = z
       .union([capped(z.number().int().min(1), 'wholePlots'), z.literal('auto')], { error: runsError('whole number of whole plots (≥ 1) or "auto"', 'wholePlots') })
       .optional()
       .describe('whole plots of the fitting runs when a factor is hard to change, or auto (default: chosen from the costs and the precision target)'),
-    varianceRatio: capped(z.number().min(0, { error: 'must be 0 or more (the whole-plot variance over the run variance)' }), 'varianceRatio')
+    varianceRatio: capped(z.number().min(0), 'varianceRatio')
       .optional()
       .describe('whole-plot variance over run-to-run variance for the split-plot design (default 1)'),
   })

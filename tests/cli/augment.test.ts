@@ -64,6 +64,13 @@ describe('tierplan augment', () => {
     const rows = (parse(text.slice(text.indexOf('\r\n\r\n') + 4)) as string[][]).slice(1);
     expect(rows.slice(1).map((row) => row[rows[0].indexOf('Point')]).sort()).toEqual(['A01', 'A02', 'A03', 'A04']);
     expect(rows.slice(1).map((row) => Number(row[0])).sort((a, b) => a - b)).toEqual([1, 2, 3, 4].map((i) => parent.runs.length + i));
+    // A split-plot parent: every added run a whole plot of its own after the parent's, in a session after the parent's.
+    const lastPlot = Math.max(...parent.runs.map((run: { wholePlot: number }) => run.wholePlot));
+    const lastSession = Math.max(...parent.runs.map((run: { session: number }) => run.session));
+    expect(added.map((run) => (run as Run & { wholePlot: number }).wholePlot).sort((a, b) => a - b)).toEqual([1, 2, 3, 4].map((i) => lastPlot + i));
+    for (const run of added) expect((run as Run & { session: number }).session).toBeGreaterThan(lastSession);
+    expect(revision.metrics.blocks.sessions).toBe(lastSession + 1);
+    expect(revision.splitPlot).toBeUndefined();
   });
 
   it('writes report.html for the revision: the parent, why runs were added, the added runs and their settings', () => {

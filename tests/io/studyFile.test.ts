@@ -350,6 +350,10 @@ describe('response, policy, design, session and cost rules', () => {
     expectKeyError((study) => (study.design = { centreRuns: 2.5 }), 'design.centreRuns', 'must be a whole number, not 2.5'));
   it('criterion must be D or I', () =>
     expectKeyError((study) => (study.design = { criterion: 'A' }), 'design.criterion', 'must be one of "D", "I", not "A"'));
+  it('varianceRatio must not be negative', () =>
+    expectKeyError((study) => (study.design = { varianceRatio: -0.5 }), 'design.varianceRatio', 'must be at least 0, not -0.5'));
+  it('wholePlots must be a whole number or auto', () =>
+    expectKeyError((study) => (study.design = { wholePlots: 2.5 }), 'design.wholePlots', 'must be a whole number of whole plots (≥ 1) or "auto"'));
   it('starts must be at least 1', () =>
     expectKeyError((study) => (study.design = { starts: 0 }), 'design.starts', 'must be at least 1, not 0'));
   it('seed must fit the 32-bit generators', () =>
