@@ -1,8 +1,9 @@
 /**
  * Benchmark of the structured (split-plot, blocked) exact search,
  * src/core/design/structuredExchange.ts, on two cases:
- * - the bundled sample's model and candidate region (inlet temperature hard to change), 18
- *   fitting runs and 3 centre replicates in sessions of 6, for several whole-plot counts;
+ * - the bundled sample's model and candidate region (inlet temperature hard to change), 21
+ *   fitting runs, 3 centre replicates and 4 holdouts in sessions of 6 (the sample plan's
+ *   layout), for 7, 9 (the sample plan's count) and 12 whole plots;
  * - an invented 6-factor case, 2 of them hard to change, full quadratic model (28 terms),
  *   40 runs in 10 whole plots of 4 runs, 2 sessions.
  * Per case: time with the default number of starts and the D-efficiency of its plan relative
@@ -21,7 +22,7 @@ import { planLevels } from '../src/core/design/levels.js';
 import { deriveModel } from '../src/core/design/modelFromTiers.js';
 import { buildCandidateRegion, type CandidateRegion } from '../src/core/region/candidateRegion.js';
 import { compileModel, type CompiledModel } from '../src/core/model/modelMatrix.js';
-import { layoutRuns } from '../src/core/design/runLayout.js';
+import { fittedStructure, layoutRuns } from '../src/core/design/runLayout.js';
 import type { ErrorStructure } from '../src/core/model/glsInformation.js';
 import { findStructuredDesign } from '../src/core/design/structuredExchange.js';
 import { DEFAULT_DESIGN } from '../src/core/study.js';
@@ -46,20 +47,14 @@ async function sampleCases(): Promise<SearchCase[]> {
   const model = compileModel(derived.terms, ids);
   const region = buildCandidateRegion(study.factors, levels, study.constraints, { seed: 1 });
   const hard = ids.map((id) => study.factors.find((f) => f.id === id)?.hardToChange === true);
-  return [6, 9, 12].map((wholePlots) => {
-    const layout = layoutRuns({ fitRuns: 18, centreRuns: 3, holdoutRuns: 0, maxRuns: 6, wholePlots });
-    const slots = layout.roles.map((_, i) => i).filter((i) => layout.roles[i] !== 'holdout');
+  return [7, 9, 12].map((wholePlots) => {
+    const layout = layoutRuns({ fitRuns: 21, centreRuns: 3, holdoutRuns: 4, maxRuns: 6, wholePlots });
+    const { structure, slots } = fittedStructure(layout, 1);
     return {
       name: `sample, ${wholePlots} whole plots, ${layout.sessions} sessions`,
       model,
       region,
-      structure: {
-        wholePlotOf: Int32Array.from(slots.map((i) => layout.wholePlotOf[i])),
-        sessionOfWholePlot: layout.sessionOfWholePlot,
-        wholePlots: layout.wholePlots,
-        sessions: layout.sessions,
-        varianceRatio: 1,
-      },
+      structure,
       fixed: slots.map((i) => (layout.roles[i] === 'centre' ? ids.map(() => 0) : null)),
       hard,
     };

@@ -11,12 +11,12 @@
  *   the whole-plot-to-whole-plot repeatability a reset brings and a holdout tests the model on
  *   a fresh setting. Without hard-to-change factors every run is a unit of its own.
  * - Sessions. The fewest sessions of at most `maxRuns` runs into which the units can be packed
- *   without splitting one. Centre replicates go to sessions spread evenly from the first to the
- *   last, holdouts likewise (offset by half a step), and the fitting units then fill the
- *   sessions largest first, each into the emptiest session that still has room (a first-fit
- *   decreasing packing; Johnson, 1974, "Fast algorithms for bin packing", J. Comput. Syst. Sci.
- *   8). The session a set of units lands in is only a label: the run order assigns calendar
- *   days at random.
+ *   without splitting one. The fitting units fill the sessions largest first, each into the
+ *   emptiest session that still has room, counting and where possible keeping the room of the
+ *   one-run units aimed at it (the centre replicates' room before the holdouts') (a worst-fit decreasing packing; Johnson, 1974, "Fast
+ *   algorithms for bin packing", J. Comput. Syst. Sci. 8); centre replicates then go to the
+ *   session nearest an even spread from the first to the last that has room, holdouts likewise
+ *   (offset by half a step). The session a set of units lands in is only a label.
  * - Everything is 0-based here; plan.json shows whole plots and sessions 1-based.
  */
 import { InputError } from '../inputError.js';
@@ -98,17 +98,31 @@ function pack(fitUnits: number[], centres: number, holdouts: number, sessions: n
   };
   const spread = (count: number, offset: number) =>
     Array.from({ length: count }, (_, i) => (count === 1 ? Math.floor((sessions - 1) / 2) : Math.round(((i + offset) * (sessions - 1)) / (count - 1 + offset))));
-  for (const session of spread(centres, 0)) if (!putNear(session, 'centre')) return null;
-  for (const session of spread(holdouts, 0.5)) if (!putNear(session, 'holdout')) return null;
+  // The fitting units first, largest first, each into the emptiest session with room; the
+  // one-run units (centre replicates, holdouts) then fill in near their spread positions, so
+  // that they never force an extra session on the larger units.
+  const centreTargets = spread(centres, 0);
+  const holdoutTargets = spread(holdouts, 0.5);
+  const reservedCentres = new Array<number>(sessions).fill(0);
+  for (const s of centreTargets) reservedCentres[s]++;
+  const reserved = [...reservedCentres];
+  for (const s of holdoutTargets) reserved[s]++;
   const order = fitUnits.map((size, i) => ({ size, i })).sort((a, b) => b.size - a.size || a.i - b.i);
   for (const unit of order) {
+    // The emptiest session counting the one-run units aimed at it, keeping their room when possible.
     let target = -1;
-    for (let s = 0; s < sessions; s++) {
-      if (load[s] + unit.size <= capacity && (target < 0 || load[s] < load[target])) target = s;
+    for (const keep of [reserved, reservedCentres, null]) {
+      for (let s = 0; s < sessions; s++) {
+        const room = load[s] + unit.size + (keep ? keep[s] : 0) <= capacity;
+        if (room && (target < 0 || load[s] + reserved[s] < load[target] + reserved[target])) target = s;
+      }
+      if (target >= 0) break;
     }
     if (target < 0) return null;
     put(target, 'fit', unit.size);
   }
+  for (const session of centreTargets) if (!putNear(session, 'centre')) return null;
+  for (const session of holdoutTargets) if (!putNear(session, 'holdout')) return null;
   return { sessions: held };
 
   function putNear(session: number, role: SlotRole): boolean {
