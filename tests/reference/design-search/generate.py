@@ -3,8 +3,8 @@
 Run with: /usr/bin/python3 tests/reference/design-search/generate.py  (numpy 1.24)
 Writes design-search.json beside this script. Nothing here is random except the plan of
 case 4, drawn from a fixed seed, so the output is the same byte for byte on every run; the
-script ends by comparing the SHA-256 of what it wrote with CHECKSUM below and exits 1 when
-they differ (update CHECKSUM only together with a deliberate change of the script).
+script ends by comparing the SHA-256 of what it wrote with CHECKSUMS below and exits 1 when
+they differ (update CHECKSUMS only together with a deliberate change of the script).
 CI reads the JSON and never needs Python.
 
 1. exhaustive: every N-run design (multiset of grid points) on small grids, by brute force;
@@ -24,14 +24,21 @@ CI reads the JSON and never needs Python.
    out; the prediction variance of a first-order model is a convex quadratic in x, so its
    maximum over the cube is at a vertex, and the maximum over the 8 vertices is exact.
 """
-import hashlib
 import itertools
 import json
 import pathlib
+import sys
+
+sys.path.insert(0, str(pathlib.Path(__file__).resolve().parents[1]))
+import reproducible  # noqa: E402  (tests/reference/reproducible.py)
+
+reproducible.pin_blas()  # before numpy loads OpenBLAS
 
 import numpy as np
 
-CHECKSUM = "0a03e10bd514b205ae2c5e0df3642f90e38f37b0e7b81f5ad5c23bb436a1696a"
+CHECKSUMS = {
+    "design-search.json": "381e556291ac209452d856e5c55e5a03221ce212c334f34031d5d16d81aa7fd8",
+}
 HERE = pathlib.Path(__file__).parent
 
 
@@ -198,7 +205,4 @@ out["gEfficiency"] = {
 path = HERE / "design-search.json"
 text = json.dumps(out, indent=1) + "\n"
 path.write_text(text)
-digest = hashlib.sha256(text.encode()).hexdigest()
-print(digest)
-if digest != CHECKSUM:
-    raise SystemExit(f"design-search.json changed: sha256 {digest}, expected {CHECKSUM}")
+reproducible.check(pathlib.Path(__file__).parent, CHECKSUMS)
