@@ -22,7 +22,8 @@ CI reads the JSON and never needs Python.
    bound path must report an efficiency no lower, and a guaranteed bound no higher.
 5. gEfficiency: first-order model in three factors on a 5-run design that leaves (1, 1, 1)
    out; the prediction variance of a first-order model is a convex quadratic in x, so its
-   maximum over the cube is at a vertex, and the maximum over the 8 vertices is exact.
+   maximum over the cube is at a vertex, and the maximum over the 8 vertices is exact; the
+   variance at every vertex is recorded too.
 6. cutRegion: the best 13-run design for the three-factor quadratic on the cut 3^3 grid found
    by 200 seeded starts of a plain Fedorov exchange (too many designs to enumerate).
 7. iOptimum: the I-optimal 9-run design on the 3x3 grid by enumeration.
@@ -40,7 +41,7 @@ reproducible.pin_blas()  # before numpy loads OpenBLAS
 import numpy as np
 
 CHECKSUMS = {
-    "design-search.json": "47dd3ac9ecc46aabe5f94cafba1e2e43b38dfad976222707b7f060c15426be1a",
+    "design-search.json": "f5e451517c78b947650b74923c62ae3a3f173a0543224ceaa029727045eb236a",
 }
 HERE = pathlib.Path(__file__).parent
 
@@ -203,6 +204,8 @@ out["gEfficiency"] = {
     "argmax": vertices[int(np.argmax(dv))].tolist(),
     "maxScaledVariance": float(len(design) * dv.max()),
     "gEfficiency": float(100 * 4 / (len(design) * dv.max())),
+    "vertices": vertices.tolist(),
+    "vertexVariances": dv.tolist(),
 }
 
 # 6. The three-factor quadratic on the 3^3 grid cut by x1 + x2 + x3 <= 1 (23 feasible points),
