@@ -4,7 +4,7 @@
 import { describe, expect, it } from 'vitest';
 import fixture from '../../reference/evaluate/evaluate.json' with { type: 'json' };
 import { compileModel } from '../../../src/core/model/modelMatrix.js';
-import { evaluateDesign } from '../../../src/core/evaluate/designEvaluation.js';
+import { assessDesignQuality } from '../../../src/core/evaluate/designQuality.js';
 import { cubeMoments } from '../../../src/core/evaluate/cubeMoments.js';
 import { haltonPoints } from '../../../src/core/evaluate/haltonPoints.js';
 import { FDS_FRACTIONS, PREDICTION_SAMPLE_SIZE, predictionSample } from '../../../src/core/evaluate/predictionVariance.js';
@@ -16,7 +16,7 @@ const model = compileModel(
   ['a', 'b'],
 );
 // Evaluated inside each test, not at import, so that `npm run mutate` sees every mutant in it.
-const evaluate = () => evaluateDesign(model, ref.points, { moments: cubeMoments(model), termLabels: ['1', 'a', 'b', 'a*b', 'a^2', 'b^2'] });
+const evaluate = () => assessDesignQuality(model, ref.points, { moments: cubeMoments(model), termLabels: ['1', 'a', 'b', 'a*b', 'a^2', 'b^2'] });
 
 describe('Halton sample', () => {
   it('starts where scipy.stats.qmc.Halton(scramble=False) does after skipping 21 points', () => {
