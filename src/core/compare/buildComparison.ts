@@ -4,7 +4,7 @@
  *
  * Data flow: plan document → target model (plan.model.terms over the varied factors) and
  * region (rebuilt from the study echo) → comparator designs (comparators.ts) → one
- * evaluation per design (evaluate/designEvaluation.ts) → rows, savings, verdicts, summary.
+ * evaluation per design (evaluate/designQuality.ts) → rows, savings, verdicts, summary.
  *
  * Conventions fixed here:
  * - The proposed plan is judged on its fitting and centre runs (the runs the model is fitted
@@ -28,7 +28,7 @@ import { INTERCEPT_LABEL, termLabel } from '../model/modelTerm.js';
 import { parseTerm } from '../model/termSyntax.js';
 import { buildCandidateRegion } from '../region/candidateRegion.js';
 import { regionMoments } from '../evaluate/regionMoments.js';
-import { DEFAULT_ALPHA, DEFAULT_DELTA, evaluateDesign, type DesignEvaluation } from '../evaluate/designEvaluation.js';
+import { DEFAULT_ALPHA, DEFAULT_DELTA, assessDesignQuality, type DesignQuality } from '../evaluate/designQuality.js';
 import { predictionSample } from '../evaluate/predictionVariance.js';
 import type { ComparatorId, ComparatorRow, Comparison } from './comparisonTypes.js';
 import { buildComparators, runPlacement, type ComparatorDesign } from './comparators.js';
@@ -69,8 +69,8 @@ export function buildComparison(plan: ComparisonInput, options: ComparisonOption
   const region = buildCandidateRegion(plan.study.factors, plan.levels, plan.study.constraints);
   const moments = regionMoments(model, region, plan.study.design.seed);
   const sample = predictionSample(k, region);
-  const evaluate = (points: number[][]): DesignEvaluation =>
-    evaluateDesign(model, points, { moments: moments.matrix, region, delta, alpha, termLabels, sample });
+  const evaluate = (points: number[][]): DesignQuality =>
+    assessDesignQuality(model, points, { moments: moments.matrix, region, delta, alpha, termLabels, sample });
 
   const costs = plan.study.costs;
   const operating = plan.study.factors.filter((factor) => factor.role === 'operating');
@@ -107,7 +107,7 @@ export function buildComparison(plan: ComparisonInput, options: ComparisonOption
     region,
     conventionalRegion: allOperatingRegion(plan),
   });
-  const evaluations = new Map<ComparatorId, DesignEvaluation>([['proposed', proposedEvaluation]]);
+  const evaluations = new Map<ComparatorId, DesignQuality>([['proposed', proposedEvaluation]]);
   const rows: ComparatorRow[] = [proposedRow];
   for (const design of designs) {
     const evaluation = design.points ? evaluate(design.points) : null;
@@ -156,7 +156,7 @@ export function buildComparison(plan: ComparisonInput, options: ComparisonOption
   };
   return { ...comparison, summary: comparisonSummary(comparison) };
 
-  function row(id: ComparatorId, label: string, runs: number, evaluation: DesignEvaluation | null, levelChanges: number | null): ComparatorRow {
+  function row(id: ComparatorId, label: string, runs: number, evaluation: DesignQuality | null, levelChanges: number | null): ComparatorRow {
     const { cost, hours } = campaignCost(runs, levelChanges, costs);
     return {
       id,
@@ -184,7 +184,7 @@ export function buildComparison(plan: ComparisonInput, options: ComparisonOption
 }
 
 /** The evaluation figures beyond the contract columns (optional fields of the row). */
-function evaluationDetail(evaluation: DesignEvaluation): Partial<ComparatorRow> {
+function evaluationDetail(evaluation: DesignQuality): Partial<ComparatorRow> {
   return {
     fittingRuns: evaluation.runs,
     aCriterion: evaluation.aCriterion,
@@ -234,7 +234,7 @@ function allOperatingRegion(plan: ComparisonInput): CandidateRegion | undefined 
 }
 
 /** The non-intercept term with the smallest power (first in model order on ties). */
-function weakestTerm(evaluation: DesignEvaluation): string | undefined {
+function weakestTerm(evaluation: DesignQuality): string | undefined {
   let weakest: { term: string; power: number } | undefined;
   for (const term of evaluation.terms) {
     if (term.power === null) continue;
@@ -267,7 +267,7 @@ function unbuiltRow(design: ComparatorDesign): ComparatorRow {
   };
 }
 
-function addRelative(target: ComparatorRow, evaluation: DesignEvaluation | null, proposed: DesignEvaluation, model: CompiledModel): void {
+function addRelative(target: ComparatorRow, evaluation: DesignQuality | null, proposed: DesignQuality, model: CompiledModel): void {
   if (!evaluation || evaluation.logDet === null || evaluation.logDetPerRun === null) return;
   if (proposed.logDet === null || proposed.logDetPerRun === null) return;
   target.relativeInformationPerRun = Math.exp((evaluation.logDetPerRun - proposed.logDetPerRun) / model.p);

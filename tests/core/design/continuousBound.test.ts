@@ -148,6 +148,30 @@ describe('continuous D-optimal design', () => {
     expect(result.note).toMatch(/not a guaranteed bound: the 5000000-point grid is too large to check/);
   });
 
+  // Kiefer & Wolfowitz (1960): for the first-order model on the cube the D-optimal design is
+  // uniform on the vertices, and the 2^4 factorial attains it (D-efficiency 100 %). The sample
+  // holds the vertices, so the scan of the whole grid meets the equivalence check.
+  it('says so when the scan of the whole grid meets the equivalence check on the sampled path', () => {
+    const model = modelFromExponents(firstOrderExponents(4));
+    const region = gridRegion(Array(4).fill(THREE_LEVELS), () => true, false);
+    const factorial = gridRegion(Array(4).fill([-1, 1])).points as number[][];
+    const result = boundForRegion(model, region, factorial, 1);
+    expect(result.note).toMatch(/a scan of the whole grid met the equivalence check \(max variance 5\.00\d ≤ p\(1 \+ 0\.001\), p = 5\)/);
+    // The bound stops within 0.1 % of the optimum (ε = 1e-3), so the figure lies in [100, 100.1].
+    expect(result.efficiency as number).toBeGreaterThanOrEqual(100 - 1e-9);
+    expect(result.efficiency as number).toBeLessThanOrEqual(100 * 1.001);
+  });
+
+  it('samples an enumerated grid too large for the whole-grid algorithm (n·p² above 3·10⁶)', () => {
+    const ref = reference.sampledBound;
+    const model = modelFromExponents(ref.exponents);
+    const eleven = Array.from({ length: 11 }, (_, i) => -1 + i / 5);
+    const small = boundForRegion(model, gridRegion(Array(4).fill(ref.levels)), ref.plan, 1); // 6561·225 ≤ 3·10⁶
+    expect(small.note).toMatch(/on all 6561 feasible grid points/);
+    const large = boundForRegion(model, gridRegion(Array(4).fill(eleven)), ref.plan, 1); // 14641·225 > 3·10⁶
+    expect(large.note).toMatch(/found on \d+ feasible grid points \(a seeded sample, seed 1, refined by scans of the whole grid\)/);
+  });
+
   it('returns no efficiency, with the reason, for a plan that cannot estimate the model', () => {
     const model = modelFromExponents(quadraticExponents(2));
     const result = boundForRegion(model, gridRegion([THREE_LEVELS, THREE_LEVELS]), [[0, 0], [1, 1], [1, 1], [0, 0], [1, 0], [0, 1]], 1);

@@ -28,8 +28,16 @@ describe('termPower', () => {
     expect(power).toBeCloseTo(fixture.factorial2cubedCentre3.mainEffectPower, 6);
   });
 
-  it('is null without residual degrees of freedom', () => {
+  it('is null without residual degrees of freedom or without a positive standard error', () => {
     expect(termPower(0.3, 2, 2, 0.05, 0)).toBeNull();
+    expect(termPower(0, 2, 2, 0.05, 4)).toBeNull();
+    expect(termPower(Number.POSITIVE_INFINITY, 2, 2, 0.05, 4)).toBeNull();
+  });
+
+  it('tests with a single residual degree of freedom (scipy: df 1, noncentrality 2)', () => {
+    const c = fixture.twoSidedPower.find((entry) => entry.df === 1 && entry.ncp === 2)!;
+    // δ = 2, range 2, se = 0.5: noncentrality 2 / 2 / 0.5 = 2.
+    expect(termPower(0.5, 2, 2, c.alpha, 1)).toBeCloseTo(c.power, 6);
   });
 
   it('reads the range of a term over the coded cube (x, x·z, x³: 2; x², x²z²: 1)', () => {

@@ -23,10 +23,20 @@ Cases
 import itertools
 import json
 import pathlib
+import sys
+
+sys.path.insert(0, str(pathlib.Path(__file__).resolve().parents[1]))
+import reproducible  # noqa: E402  (tests/reference/reproducible.py)
+
+reproducible.pin_blas()  # before numpy loads OpenBLAS
 
 import numpy as np
 import scipy
 from scipy import stats
+
+CHECKSUMS = {
+    "analysis.json": "2091a21490d3f61da1e375bf29dc1e68f9d52dc8eb5af234b808f1f126d08fbf",
+}
 
 out = {"generatedBy": f"numpy {np.__version__}, scipy {scipy.__version__}"}
 
@@ -213,3 +223,4 @@ out["blocked"] = {
 path = pathlib.Path(__file__).with_name("analysis.json")
 path.write_text(json.dumps(out, indent=1) + "\n")
 print(f"wrote {path}")
+reproducible.check(pathlib.Path(__file__).parent, CHECKSUMS)

@@ -3,8 +3,8 @@
 Run with: /usr/bin/python3 tests/reference/design-search/generate.py  (numpy 1.24)
 Writes design-search.json beside this script. Nothing here is random except the plan of
 case 4, drawn from a fixed seed, so the output is the same byte for byte on every run; the
-script ends by comparing the SHA-256 of what it wrote with CHECKSUM below and exits 1 when
-they differ (update CHECKSUM only together with a deliberate change of the script).
+script ends by comparing the SHA-256 of what it wrote with CHECKSUMS below and exits 1 when
+they differ (update CHECKSUMS only together with a deliberate change of the script).
 CI reads the JSON and never needs Python.
 
 1. exhaustive: every N-run design (multiset of grid points) on small grids, by brute force;
@@ -22,16 +22,27 @@ CI reads the JSON and never needs Python.
    bound path must report an efficiency no lower, and a guaranteed bound no higher.
 5. gEfficiency: first-order model in three factors on a 5-run design that leaves (1, 1, 1)
    out; the prediction variance of a first-order model is a convex quadratic in x, so its
-   maximum over the cube is at a vertex, and the maximum over the 8 vertices is exact.
+   maximum over the cube is at a vertex, and the maximum over the 8 vertices is exact; the
+   variance at every vertex is recorded too.
+6. cutRegion: the best 13-run design for the three-factor quadratic on the cut 3^3 grid found
+   by 200 seeded starts of a plain Fedorov exchange (too many designs to enumerate).
+7. iOptimum: the I-optimal 9-run design on the 3x3 grid by enumeration.
 """
-import hashlib
 import itertools
 import json
 import pathlib
+import sys
+
+sys.path.insert(0, str(pathlib.Path(__file__).resolve().parents[1]))
+import reproducible  # noqa: E402  (tests/reference/reproducible.py)
+
+reproducible.pin_blas()  # before numpy loads OpenBLAS
 
 import numpy as np
 
-CHECKSUM = "0a03e10bd514b205ae2c5e0df3642f90e38f37b0e7b81f5ad5c23bb436a1696a"
+CHECKSUMS = {
+    "design-search.json": "f5e451517c78b947650b74923c62ae3a3f173a0543224ceaa029727045eb236a",
+}
 HERE = pathlib.Path(__file__).parent
 
 
@@ -193,12 +204,76 @@ out["gEfficiency"] = {
     "argmax": vertices[int(np.argmax(dv))].tolist(),
     "maxScaledVariance": float(len(design) * dv.max()),
     "gEfficiency": float(100 * 4 / (len(design) * dv.max())),
+    "vertices": vertices.tolist(),
+    "vertexVariances": dv.tolist(),
+}
+
+# 6. The three-factor quadratic on the 3^3 grid cut by x1 + x2 + x3 <= 1 (23 feasible points),
+#    13 runs: C(35, 13) multisets are too many to enumerate, so this is the best ln det(X'X)
+#    over 200 seeded starts of a plain Fedorov exchange (Fedorov 1972: each pass makes the best
+#    single swap of a design row for a candidate, with every determinant recomputed by slogdet),
+#    not a proven optimum; how many starts reach it is recorded too.
+def fedorov(F, runs, rng):
+    p = F.shape[1]
+    while True:
+        rows = rng.choice(len(F), runs)
+        sign, current = np.linalg.slogdet(F[rows].T @ F[rows])
+        if sign > 0:
+            break
+    while True:
+        best, swap = current, None
+        for i in range(runs):
+            X = np.repeat(F[rows][None, :, :], len(F), axis=0)
+            X[:, i, :] = F
+            sign, logdet = np.linalg.slogdet(np.einsum("bri,brj->bij", X, X))
+            logdet = np.where(sign > 0, logdet, -np.inf)
+            j = int(np.argmax(logdet))
+            if logdet[j] > best + 1e-10:
+                best, swap = logdet[j], (i, j)
+        if swap is None:
+            return current - p * np.log(runs)
+        rows[swap[0]] = swap[1]
+        current = best
+
+
+cut_points = np.array([x for x in grid([three] * 3) if x.sum() <= 1])
+F_cut = expand(cut_points, quadratic_exponents(3))
+rng_cut = np.random.default_rng(20261206)
+cut_values = np.array([fedorov(F_cut, 13, rng_cut) for _ in range(200)])
+out["cutRegion"] = {
+    "name": "three-factor quadratic on the 3^3 grid with x1 + x2 + x3 <= 1, 13 runs",
+    "candidates": len(cut_points),
+    "runs": 13,
+    "starts": 200,
+    "bestLogDetPerRun": float(cut_values.max()),
+    "startsReachingBest": int(np.sum(cut_values > cut_values.max() - 1e-9)),
+}
+
+# 7. I-optimum of the two-factor quadratic on the 3x3 grid, 9 runs, by enumerating all
+#    C(17, 9) = 24310 multisets: min trace((X'X)^-1 W), W the moments of the model over the
+#    square [-1, 1]^2 with uniform weight, by 8-point Gauss-Legendre product quadrature (exact
+#    for these degrees). Also the I-criterion of the 3^2 factorial, for comparison.
+nodes, gl_weights = np.polynomial.legendre.leggauss(8)
+quad_points = grid([nodes, nodes])
+quad_weights = np.outer(gl_weights, gl_weights).ravel() / 4
+Fq = expand(quad_points, quadratic_exponents(2))
+W2 = Fq.T @ (Fq * quad_weights[:, None])
+combos9 = np.array(list(itertools.combinations_with_replacement(range(len(square)), 9)))
+X9 = F2[combos9]
+M9 = np.einsum("bri,brj->bij", X9, X9)
+sign9, logdet9 = np.linalg.slogdet(M9)
+usable = np.where((sign9 > 0) & (logdet9 > -20))[0]
+traces = np.einsum("bij,ji->b", np.linalg.inv(M9[usable]), W2)
+factorial_trace = float(np.trace(np.linalg.inv(F2.T @ F2) @ W2))
+out["iOptimum"] = {
+    "name": "two-factor quadratic on the 3x3 grid, 9 runs, I-criterion",
+    "designsEnumerated": len(combos9),
+    "bestICriterion": float(traces.min()),
+    "optimalDesigns": int(np.sum(traces < traces.min() + 1e-12)),
+    "factorialICriterion": factorial_trace,
 }
 
 path = HERE / "design-search.json"
 text = json.dumps(out, indent=1) + "\n"
 path.write_text(text)
-digest = hashlib.sha256(text.encode()).hexdigest()
-print(digest)
-if digest != CHECKSUM:
-    raise SystemExit(f"design-search.json changed: sha256 {digest}, expected {CHECKSUM}")
+reproducible.check(pathlib.Path(__file__).parent, CHECKSUMS)

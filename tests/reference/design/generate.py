@@ -11,10 +11,20 @@ Independent of the TypeScript code paths:
 """
 import json
 import pathlib
+import sys
+
+sys.path.insert(0, str(pathlib.Path(__file__).resolve().parents[1]))
+import reproducible  # noqa: E402  (tests/reference/reproducible.py)
+
+reproducible.pin_blas()  # before numpy loads OpenBLAS
 
 import numpy as np
 from numpy.polynomial.legendre import leggauss
 from scipy import integrate
+
+CHECKSUMS = {
+    "design.json": "6ac3534f3efeca788ab9327872522d381c937d961e2454ada3ddf3c86019341a",
+}
 
 
 def expand(exponents, x):
@@ -138,3 +148,4 @@ out = {
 path = pathlib.Path(__file__).with_name("design.json")
 path.write_text(json.dumps(out, indent=1))
 print("wrote", path)
+reproducible.check(pathlib.Path(__file__).parent, CHECKSUMS)

@@ -6,10 +6,20 @@ Writes evaluate.json next to this script. CI reads the JSON and never needs Pyth
 import itertools
 import json
 import pathlib
+import sys
+
+sys.path.insert(0, str(pathlib.Path(__file__).resolve().parents[1]))
+import reproducible  # noqa: E402  (tests/reference/reproducible.py)
+
+reproducible.pin_blas()  # before numpy loads OpenBLAS
 
 import numpy as np
 from scipy import stats
 from scipy.stats import qmc
+
+CHECKSUMS = {
+    "evaluate.json": "5256cbdcdf92e265afba6b2237ce8621c1b9273e192a3c289e898eb4af679cf6",
+}
 
 out = {"generatedBy": f"numpy {np.__version__}, scipy {__import__('scipy').__version__}"}
 
@@ -147,3 +157,4 @@ out["cubic1FourLevels"] = {"points": [[float(v)] for v in xc], "residualDf": int
 path = pathlib.Path(__file__).with_name("evaluate.json")
 path.write_text(json.dumps(out, indent=2) + "\n")
 print(f"wrote {path}")
+reproducible.check(pathlib.Path(__file__).parent, CHECKSUMS)

@@ -8,14 +8,25 @@ the coded Euclidean distances to the occupied points (feasible corners of the bo
 centre). Records, per constraint: the number of free candidates and the largest
 nearest-occupied distance, with the candidates attaining it (the first maximin holdout).
 
-Run: python3 tests/reference/holdouts/generate.py > tests/reference/holdouts/holdouts.json
+Run: python3 tests/reference/holdouts/generate.py  (writes holdouts.json beside this script)
 """
 import itertools
 import json
+import pathlib
+import sys
 from decimal import Decimal, ROUND_HALF_DOWN, ROUND_HALF_UP
+
+sys.path.insert(0, str(pathlib.Path(__file__).resolve().parents[1]))
+import reproducible  # noqa: E402  (tests/reference/reproducible.py)
+
+reproducible.pin_blas()  # before numpy loads OpenBLAS
 
 import numpy as np
 from scipy.spatial.distance import cdist
+
+CHECKSUMS = {
+    "holdouts.json": "0d60eee005c3c57aa6bca7d528e88de0cde7709809d1a34c13179c46d3a54b1e",
+}
 
 # id, low, high, precision, levels (engineering, as the tool plans them for the sample)
 FACTORS = [
@@ -72,5 +83,7 @@ def case(offset):
     }
 
 
-print(json.dumps({"source": "tests/reference/holdouts/generate.py (numpy 2.4, scipy 1.17 cdist)",
-                  "cases": [case(18), case(20)]}, indent=2))
+path = pathlib.Path(__file__).with_name("holdouts.json")
+path.write_text(json.dumps({"source": "tests/reference/holdouts/generate.py (numpy 2.4, scipy 1.17 cdist)",
+                  "cases": [case(18), case(20)]}, indent=2) + "\n")
+reproducible.check(pathlib.Path(__file__).parent, CHECKSUMS)

@@ -26,8 +26,18 @@ Run: python3 tests/reference/ishigami/generate.py   (numpy only; writes ishigami
 import json
 import math
 import pathlib
+import sys
+
+sys.path.insert(0, str(pathlib.Path(__file__).resolve().parents[1]))
+import reproducible  # noqa: E402  (tests/reference/reproducible.py)
+
+reproducible.pin_blas()  # before numpy loads OpenBLAS
 
 import numpy as np
+
+CHECKSUMS = {
+    "ishigami.json": "8d93f5dabae8e96739d123886eadd0a24c5d36f577f7899163ca96ea31453d18",
+}
 
 A_COEF = 7.0
 B_COEF = 0.1
@@ -116,3 +126,4 @@ def main():
 
 if __name__ == "__main__":
     main()
+    reproducible.check(pathlib.Path(__file__).parent, CHECKSUMS)

@@ -16,12 +16,22 @@ Independent of the TypeScript code paths:
 import itertools
 import json
 import pathlib
+import sys
+
+sys.path.insert(0, str(pathlib.Path(__file__).resolve().parents[1]))
+import reproducible  # noqa: E402  (tests/reference/reproducible.py)
+
+reproducible.pin_blas()  # before numpy loads OpenBLAS
 
 import numpy as np
 import scipy
 from numpy.polynomial import legendre
 from numpy.polynomial.legendre import leggauss
 from scipy import stats
+
+CHECKSUMS = {
+    "precision.json": "b3746fdcda8aae21e02c536cba8a027f882c1b1f1669655ca94c29d80efbdf7e",
+}
 
 out = {"generatedBy": f"numpy {np.__version__}, scipy {scipy.__version__}"}
 
@@ -247,3 +257,4 @@ out["exhaustive"] = [
 
 path = pathlib.Path(__file__).with_name("precision.json")
 path.write_text(json.dumps(out, indent=1, sort_keys=True) + "\n")
+reproducible.check(pathlib.Path(__file__).parent, CHECKSUMS)

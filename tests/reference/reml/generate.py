@@ -20,13 +20,23 @@ here by their definitions (see src/core/analysis/wholePlotReml.ts).
 """
 import json
 import pathlib
+import sys
 import warnings
+
+sys.path.insert(0, str(pathlib.Path(__file__).resolve().parents[1]))
+import reproducible  # noqa: E402  (tests/reference/reproducible.py)
+
+reproducible.pin_blas()  # before numpy loads OpenBLAS
 
 import numpy as np
 import scipy
 import statsmodels
 import statsmodels.api as sm
 from scipy import optimize, stats
+
+CHECKSUMS = {
+    "reml.json": "436515fb4af011fe93b800e459ab1e55834080dde7a3e0312b94c4e6095e3ed0",
+}
 
 warnings.simplefilter("ignore")
 
@@ -172,3 +182,4 @@ for seed in range(100, 200):
 path = pathlib.Path(__file__).with_name("reml.json")
 path.write_text(json.dumps(out, indent=1) + "\n")
 print(f"wrote {path}")
+reproducible.check(pathlib.Path(__file__).parent, CHECKSUMS)

@@ -16,10 +16,20 @@ Two independent references per polynomial:
 import itertools
 import json
 import pathlib
+import sys
+
+sys.path.insert(0, str(pathlib.Path(__file__).resolve().parents[1]))
+import reproducible  # noqa: E402  (tests/reference/reproducible.py)
+
+reproducible.pin_blas()  # before numpy loads OpenBLAS
 
 import numpy as np
 import scipy
 from scipy import stats
+
+CHECKSUMS = {
+    "sobol.json": "52d0711c945e21684a7ab72732ddd05c7a73e5cbb73156ed225a951111cae824",
+}
 
 NODES = 8  # Gauss-Legendre rule exact for degree <= 15 per coordinate
 MC_POWER = 12  # 2^12 base samples per replicate
@@ -119,3 +129,4 @@ for seed, (name, (k, terms)) in enumerate(cases.items(), start=1):
 path = pathlib.Path(__file__).with_name("sobol.json")
 path.write_text(json.dumps(out, indent=1) + "\n")
 print(f"wrote {path}")
+reproducible.check(pathlib.Path(__file__).parent, CHECKSUMS)

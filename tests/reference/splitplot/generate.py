@@ -12,8 +12,19 @@ byte-for-byte reproducible.
 """
 import json
 import os
+import pathlib
+import sys
+
+sys.path.insert(0, str(pathlib.Path(__file__).resolve().parents[1]))
+import reproducible  # noqa: E402  (tests/reference/reproducible.py)
+
+reproducible.pin_blas()  # before numpy loads OpenBLAS
 
 import numpy as np
+
+CHECKSUMS = {
+    "gls.json": "bf63bb7019c815ed9ee90c11be7dd1a58155d71b0e4ffbc731cfd208c9fb1ef3",
+}
 
 rng = np.random.default_rng(20261202)
 
@@ -73,3 +84,4 @@ path = os.path.join(os.path.dirname(os.path.abspath(__file__)), "gls.json")
 with open(path, "w") as handle:
     json.dump({"source": "numpy dense GLS with explicit V and session indicators (generate.py)", "cases": cases}, handle, indent=1)
     handle.write("\n")
+reproducible.check(pathlib.Path(__file__).parent, CHECKSUMS)

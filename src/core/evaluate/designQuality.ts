@@ -27,7 +27,7 @@ import { gEfficiency as gEfficiencyOf } from './gEfficiency.js';
 export const DEFAULT_DELTA = 2;
 export const DEFAULT_ALPHA = 0.05;
 
-export interface TermEvaluation {
+export interface TermQuality {
   term: string;
   /** Standard error of the coefficient in σ units, √((X'X)⁻¹)_jj. */
   standardError: number;
@@ -37,7 +37,7 @@ export interface TermEvaluation {
   power: number | null;
 }
 
-export interface DesignEvaluation {
+export interface DesignQuality {
   runs: number;
   p: number;
   rank: number;
@@ -56,7 +56,7 @@ export interface DesignEvaluation {
   maxScaledPredictionVariance: number | null;
   gEfficiencyNote: string | null;
   maxVif: number | null;
-  terms: TermEvaluation[];
+  terms: TermQuality[];
   /** Smallest power over the non-intercept terms. */
   minPower: number | null;
   /** Why power is not given, when it is not. */
@@ -66,7 +66,7 @@ export interface DesignEvaluation {
   fds: FdsCurve | null;
 }
 
-export interface EvaluationOptions {
+export interface DesignQualityOptions {
   /** Region moment matrix W (p × p, row-major) for the I-criterion. */
   moments: Float64Array;
   /** Constrained region: thins the prediction sample, supplies candidates for G-efficiency. */
@@ -79,14 +79,14 @@ export interface EvaluationOptions {
   sample?: number[][];
 }
 
-export function evaluateDesign(model: CompiledModel, points: number[][], options: EvaluationOptions): DesignEvaluation {
+export function assessDesignQuality(model: CompiledModel, points: number[][], options: DesignQualityOptions): DesignQuality {
   const { p } = model;
   const k = model.factorIds.length;
   const N = points.length;
   const delta = options.delta ?? DEFAULT_DELTA;
   const alpha = options.alpha ?? DEFAULT_ALPHA;
   const { termLabels } = options;
-  if (termLabels.length !== p) throw new Error(`evaluateDesign needs ${p} term labels, got ${termLabels.length}`);
+  if (termLabels.length !== p) throw new Error(`assessDesignQuality needs ${p} term labels, got ${termLabels.length}`);
 
   const X = modelMatrix(model, points);
   const estimable = estimability(X, N, p, termLabels);
@@ -101,7 +101,7 @@ export function evaluateDesign(model: CompiledModel, points: number[][], options
     delta,
     alpha,
   };
-  const unfit: DesignEvaluation = {
+  const unfit: DesignQuality = {
     ...base,
     logDetPerRun: null,
     logDet: null,
@@ -131,7 +131,7 @@ export function evaluateDesign(model: CompiledModel, points: number[][], options
   const interceptColumn = findIntercept(model);
   const vifs = varianceInflationFactors(X, N, p, interceptColumn);
   const residualDf = N - p;
-  const terms: TermEvaluation[] = [];
+  const terms: TermQuality[] = [];
   let nonIntercept = 0;
   for (let c = 0; c < p; c++) {
     const standardError = Math.sqrt(inverse[c * p + c]);

@@ -3,7 +3,7 @@
 import { describe, expect, it } from 'vitest';
 import fixture from '../../reference/evaluate/evaluate.json' with { type: 'json' };
 import { compileModel } from '../../../src/core/model/modelMatrix.js';
-import { evaluateDesign } from '../../../src/core/evaluate/designEvaluation.js';
+import { assessDesignQuality } from '../../../src/core/evaluate/designQuality.js';
 import { cubeMoments } from '../../../src/core/evaluate/cubeMoments.js';
 import type { CandidateRegion } from '../../../src/core/region/candidateRegion.js';
 
@@ -26,10 +26,10 @@ describe('cubeMoments', () => {
   });
 });
 
-describe('evaluateDesign: orthogonal two-level designs', () => {
+describe('assessDesignQuality: orthogonal two-level designs', () => {
   const factors = ['x1', 'x2', 'x3'];
   const firstOrder = compileModel([{ powers: {} }, { powers: { x1: 1 } }, { powers: { x2: 1 } }, { powers: { x3: 1 } }], factors);
-  const evaluation = evaluateDesign(firstOrder, cube(3), { moments: cubeMoments(firstOrder), termLabels: ['1', 'x1', 'x2', 'x3'] });
+  const evaluation = assessDesignQuality(firstOrder, cube(3), { moments: cubeMoments(firstOrder), termLabels: ['1', 'x1', 'x2', 'x3'] });
 
   it('gives D-efficiency 100 % and VIF 1 (Myers, Montgomery & Anderson-Cook 2016, §8.2; Montgomery, Peck & Vining 2012, §9.4)', () => {
     expect(evaluation.fitsModel).toBe(true);
@@ -48,7 +48,7 @@ describe('evaluateDesign: orthogonal two-level designs', () => {
   });
 });
 
-describe('evaluateDesign: 3^2 grid, quadratic model (numpy/scipy fixture)', () => {
+describe('assessDesignQuality: 3^2 grid, quadratic model (numpy/scipy fixture)', () => {
   const ref = fixture.grid3x3Quadratic;
   const region: CandidateRegion = {
     factorIds: ['a', 'b'],
@@ -57,7 +57,7 @@ describe('evaluateDesign: 3^2 grid, quadratic model (numpy/scipy fixture)', () =
     gridSize: 9,
     points: ref.points,
   };
-  const evaluation = evaluateDesign(quadratic2, ref.points, { moments: cubeMoments(quadratic2), termLabels: quadraticLabels, region });
+  const evaluation = assessDesignQuality(quadratic2, ref.points, { moments: cubeMoments(quadratic2), termLabels: quadraticLabels, region });
 
   it('D-, A- and I-criteria', () => {
     expect(evaluation.dEfficiency).toBeCloseTo(ref.dEfficiency, 9);
@@ -86,7 +86,7 @@ describe('evaluateDesign: 3^2 grid, quadratic model (numpy/scipy fixture)', () =
   });
 });
 
-describe('evaluateDesign: 2^3 factorial + 3 centre runs, two-factor-interaction model (numpy fixture)', () => {
+describe('assessDesignQuality: 2^3 factorial + 3 centre runs, two-factor-interaction model (numpy fixture)', () => {
   it('D-efficiency and residual df', () => {
     const factors = ['a', 'b', 'c'];
     const model = compileModel(
@@ -94,17 +94,17 @@ describe('evaluateDesign: 2^3 factorial + 3 centre runs, two-factor-interaction 
       factors,
     );
     const points = [...cube(3), [0, 0, 0], [0, 0, 0], [0, 0, 0]];
-    const evaluation = evaluateDesign(model, points, { moments: cubeMoments(model), termLabels: ['1', 'a', 'b', 'c', 'a*b', 'a*c', 'b*c'] });
+    const evaluation = assessDesignQuality(model, points, { moments: cubeMoments(model), termLabels: ['1', 'a', 'b', 'c', 'a*b', 'a*c', 'b*c'] });
     expect(evaluation.dEfficiency).toBeCloseTo(fixture.factorial2cubedCentre3.dEfficiency, 9);
     expect(evaluation.residualDf).toBe(fixture.factorial2cubedCentre3.residualDf);
     expect(evaluation.minPower).toBeCloseTo(fixture.factorial2cubedCentre3.mainEffectPower, 6);
   });
 });
 
-describe('evaluateDesign: edge cases', () => {
+describe('assessDesignQuality: edge cases', () => {
   it('a saturated design (N = p) has null power with a reason', () => {
     const model = compileModel([{ powers: {} }, { powers: { a: 1 } }, { powers: { b: 1 } }], ['a', 'b']);
-    const evaluation = evaluateDesign(model, [[-1, -1], [1, -1], [-1, 1]], { moments: cubeMoments(model), termLabels: ['1', 'a', 'b'] });
+    const evaluation = assessDesignQuality(model, [[-1, -1], [1, -1], [-1, 1]], { moments: cubeMoments(model), termLabels: ['1', 'a', 'b'] });
     expect(evaluation.fitsModel).toBe(true);
     expect(evaluation.residualDf).toBe(0);
     expect(evaluation.minPower).toBeNull();
@@ -113,7 +113,7 @@ describe('evaluateDesign: edge cases', () => {
   });
 
   it('a design that cannot fit the model returns null criteria and the missing terms', () => {
-    const evaluation = evaluateDesign(quadratic2, cube(2), { moments: cubeMoments(quadratic2), termLabels: quadraticLabels });
+    const evaluation = assessDesignQuality(quadratic2, cube(2), { moments: cubeMoments(quadratic2), termLabels: quadraticLabels });
     expect(evaluation.fitsModel).toBe(false);
     expect(evaluation.dEfficiency).toBeNull();
     expect(evaluation.fds).toBeNull();
@@ -121,13 +121,13 @@ describe('evaluateDesign: edge cases', () => {
   });
 });
 
-describe('evaluateDesign: power of linear and cubic terms of one factor (scipy fixture)', () => {
+describe('assessDesignQuality: power of linear and cubic terms of one factor (scipy fixture)', () => {
   // tests/reference/evaluate/generate.py, case 5: four evenly spaced levels twice + 3 centre
   // runs, model 1, x, x², x³; scipy.stats.nct power with β = δσ/range (x, x³: range 2; x²: 1).
   // The fixture shows why a cubic term reads weak even on a plan that spreads its levels
   // evenly: x and x³ overlap (VIF 12.7), so each coefficient alone is imprecise.
   const cubic = compileModel([{ powers: {} }, { powers: { x: 1 } }, { powers: { x: 2 } }, { powers: { x: 3 } }], ['x']);
-  const evaluation = evaluateDesign(cubic, fixture.cubic1FourLevels.points, {
+  const evaluation = assessDesignQuality(cubic, fixture.cubic1FourLevels.points, {
     moments: cubeMoments(cubic),
     termLabels: ['1', 'x', 'x^2', 'x^3'],
   });
