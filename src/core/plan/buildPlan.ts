@@ -33,7 +33,7 @@ import { compileModel, modelMatrix, subModel, type CompiledModel } from '../mode
 import { INTERCEPT_LABEL, termLabel, type ModelTerm } from '../model/modelTerm.js';
 import { predictEffects } from '../precision/predictedEffects.js';
 import { sizeCampaign } from './campaignSize.js';
-import { xoroshiro128plus } from 'pure-rand/generator/xoroshiro128plus';
+import { createRandom } from '../random.js';
 import { scheduleLaidOut, scheduleRuns, type LaidOutPlanRun } from '../schedule/scheduleRuns.js';
 import { independentRuns } from '../model/glsInformation.js';
 import { structuredPrecision } from '../evaluate/structuredPrecision.js';
@@ -339,7 +339,7 @@ function guardedModel(
 const POTENTIAL_SAMPLE = 4000;
 
 function sampledCandidates(region: CandidateRegion, seed: number): number[][] {
-  const rng = xoroshiro128plus(seed);
+  const rng = createRandom(seed);
   const point = new Float64Array(region.levels.length);
   const points: number[][] = [];
   for (let i = 0; i < POTENTIAL_SAMPLE && randomFeasiblePoint(region, rng, point); i++) points.push(Array.from(point));
