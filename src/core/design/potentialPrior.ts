@@ -21,7 +21,7 @@
  * a potential column the primary ones explain over the candidates (range below 1e-9 of its
  * size) cannot be protected against and is reported as aliased, with prior 0.
  */
-import { Matrix, QrDecomposition } from 'ml-matrix';
+import { householderQr, solveLeastSquares } from '../linalg/householderQr.js';
 
 export interface PotentialPrior {
   /** Regression of each potential column on the primary ones, q_primary × q_potential. */
@@ -61,28 +61,29 @@ export function potentialPrior(candidateRows: Float64Array, n: number, p: number
   if (qPot === 0) {
     return { alpha: [], ranges: [], potentialColumns, primaryColumns, aliased: [], priorInformation, K, tau, logDetAdjustment: 0, adjust: (row) => Float64Array.from(row) };
   }
-  const primary = new Matrix(n, qPri);
-  const pot = new Matrix(n, qPot);
-  for (let i = 0; i < n; i++) {
-    primaryColumns.forEach((c, a) => primary.set(i, a, candidateRows[i * p + c]));
-    potentialColumns.forEach((c, a) => pot.set(i, a, candidateRows[i * p + c]));
-  }
-  const qr = new QrDecomposition(primary);
-  if (!qr.isFullRank()) throw new RangeError('the candidate set cannot estimate the primary terms, so potential terms cannot be adjusted');
-  const coefficients = qr.solve(pot);
-  const alpha = coefficients.to2DArray();
+  const primary = new Float64Array(n * qPri);
+  for (let i = 0; i < n; i++) primaryColumns.forEach((c, a) => (primary[i * qPri + a] = candidateRows[i * p + c]));
+  const qr = householderQr(primary, n, qPri);
+  if (qr.rank < qPri) throw new RangeError('the candidate set cannot estimate the primary terms, so potential terms cannot be adjusted');
+  const alpha: number[][] = Array.from({ length: qPri }, () => new Array<number>(qPot).fill(0));
   const ranges: number[] = [];
   const aliased: number[] = [];
-  const residual = pot.sub(primary.mmul(coefficients));
+  const column = new Float64Array(n);
   for (let a = 0; a < qPot; a++) {
-    let min = Number.POSITIVE_INFINITY;
-    let max = Number.NEGATIVE_INFINITY;
+    const c = potentialColumns[a];
     let size = 0;
     for (let i = 0; i < n; i++) {
-      const value = residual.get(i, a);
+      column[i] = candidateRows[i * p + c];
+      size = Math.max(size, Math.abs(column[i]));
+    }
+    const fit = solveLeastSquares(qr, column);
+    for (let b = 0; b < qPri; b++) alpha[b][a] = fit.coefficients[b];
+    let min = Number.POSITIVE_INFINITY;
+    let max = Number.NEGATIVE_INFINITY;
+    for (let i = 0; i < n; i++) {
+      const value = fit.residuals[i];
       if (value < min) min = value;
       if (value > max) max = value;
-      size = Math.max(size, Math.abs(pot.get(i, a)));
     }
     const range = max - min;
     if (!(range > 1e-9 * Math.max(size, 1e-300))) {
@@ -91,7 +92,6 @@ export function potentialPrior(candidateRows: Float64Array, n: number, p: number
       continue;
     }
     ranges.push(range);
-    const c = potentialColumns[a];
     priorInformation[c * p + c] = (range * range) / (tau * tau);
     K[c * p + c] = 1 / (tau * tau);
   }
