@@ -8,11 +8,11 @@ import { existsSync, mkdtempSync, readFileSync, readdirSync, writeFileSync } fro
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { parse } from 'csv-parse/sync';
-import { CholeskyDecomposition, Matrix, QrDecomposition, inverse } from 'ml-matrix';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { loadPlan } from '../../src/io/planFile.js';
 import { filledCsv, filledWorkbook } from '../../samples/spray-dryer/makeResults.js';
 import { repoRoot, runCli } from '../support/runCli.js';
+import { glsReferenceFit } from '../support/glsReferenceFit.js';
 
 const work = mkdtempSync(join(tmpdir(), 'tierplan-analyze-'));
 const planDir = join(work, 'plan');
@@ -93,35 +93,16 @@ describe('tierplan analyze on the invented sample results', () => {
       .slice(1)
       .filter((row) => (runOf.get(row[pointAt]) as { purpose: string }).purpose !== 'holdout')
       .sort((a, b) => Number(a[runNo]) - Number(b[runNo]));
-    const sessions = [...new Set(fitted.map((row) => (runOf.get(row[pointAt]) as { session: number }).session))].sort((a, b) => a - b);
-    // Model columns, then the sessions in sum-to-zero coding (sessionBlocks.ts: +1 in session s, −1 in the last).
-    const X = new Matrix(
-      fitted.map((row) => {
-        const run = runOf.get(row[pointAt]) as { coded: Record<string, number>; session: number };
-        const terms = plan.model.terms.map((term: string) => term.split('*').reduce((v, f) => v * run.coded[f.split('^')[0]] ** Number(f.split('^')[1] ?? 1), 1));
-        const blocks = sessions.slice(0, -1).map((s) => (run.session === s ? 1 : run.session === sessions[sessions.length - 1] ? -1 : 0));
-        return [1, ...terms, ...blocks];
-      }),
-    );
-    const y = Matrix.columnVector(fitted.map((row) => Number(row[moistureAt])));
     const moisture = analysis.responses[0] as AnalysisJson['responses'][number] & { varianceComponents: { ratio: number } | null };
-    // The split-plot fit is GLS at the REML variance ratio γ: whiten by the Cholesky factor of
-    // V = I + γZZ' (Z from the runs' whole plots), then least squares by QR.
-    const gamma = moisture.varianceComponents?.ratio ?? 0;
-    const plots = fitted.map((row) => (runOf.get(row[pointAt]) as { wholePlot: number }).wholePlot);
-    const V = new Matrix(fitted.length, fitted.length);
-    plots.forEach((a, i) => plots.forEach((b, j) => V.set(i, j, (i === j ? 1 : 0) + (a === b ? gamma : 0))));
-    const L = new CholeskyDecomposition(V).lowerTriangularMatrix;
-    const Li = inverse(L);
-    const beta = new QrDecomposition(Li.mmul(X)).solve(Li.mmul(y)).getColumn(0);
+    // The split-plot fit is GLS at the REML variance ratio, sessions as fixed blocks.
+    const { beta, residuals } = glsReferenceFit(
+      fitted.map((row) => ({ ...(runOf.get(row[pointAt]) as { coded: Record<string, number>; session: number; wholePlot: number }), y: Number(row[moistureAt]) })),
+      plan.model.terms,
+      moisture.varianceComponents?.ratio ?? 0,
+    );
     moisture.coefficients.forEach((c, j) => expect(c.estimate).toBeCloseTo(beta[j], 7));
-    const residuals = y.sub(X.mmul(Matrix.columnVector(beta))).getColumn(0);
     expect(moisture.runs.map((r) => r.run)).toEqual(fitted.map((row) => Number(row[runNo])));
     expect(moisture.runs.map((r) => r.residual)).toEqual(residuals.map((r) => expect.closeTo(r, 7)));
-    if (gamma === 0) {
-      const rss = residuals.reduce((s, r) => s + r * r, 0);
-      expect(moisture.residualSd).toBeCloseTo(Math.sqrt(rss / (X.rows - X.columns)), 10);
-    }
   });
 
   it('refuses a tampered sheet with its cell named, exit 2, nothing written', () => {

@@ -10,12 +10,12 @@
 import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { Matrix, QrDecomposition } from 'ml-matrix';
 import { beforeAll, describe, expect, it } from 'vitest';
 import type { PlanDocument } from '../../src/core/plan/planDocument.js';
 import { loadPlan } from '../../src/io/planFile.js';
 import { filledWorkbook, inventedResults } from '../../samples/spray-dryer/makeResults.js';
 import { repoRoot, runCli } from '../support/runCli.js';
+import { glsReferenceFit } from '../support/glsReferenceFit.js';
 
 const work = mkdtempSync(join(tmpdir(), 'tierplan-revision-'));
 const parentPath = join(work, 'plan', 'plan.json');
@@ -42,11 +42,6 @@ interface Analysis {
   responses: { id: string; n: number; terms: string[]; coefficients: { term: string; estimate: number }[]; runs: { run: number; point: string; observed: number }[]; holdout: { point: string }[] }[];
 }
 
-/** Model row of a coded point for terms in the plan's syntax (`a`, `a*b`, `a^2`). */
-function modelRow(terms: string[], coded: Record<string, number>): number[] {
-  return [1, ...terms.map((term) => term.split('*').reduce((v, part) => v * coded[part.split('^')[0]] ** Number(part.split('^')[1] ?? 1), 1))];
-}
-
 /** Point → the invented results written on a plan's sheet. */
 function resultsByPoint(plan: PlanDocument): Map<string, Record<string, number>> {
   const byRun = inventedResults(plan);
@@ -54,7 +49,7 @@ function resultsByPoint(plan: PlanDocument): Map<string, Record<string, number>>
 }
 
 describe('tierplan analyze on a revision with its parent', () => {
-  it('fits the parent runs and the added runs together, as an outside QR fit of both sheets does', () => {
+  it('fits the parent runs and the added runs together, as an outside GLS fit of both sheets does', () => {
     const result = runCli(['analyze', revisionPath, addedResults, '--parent', parentPath, '--parent-results', parentResults, '--json']);
     expect(result.stderr).toBe('');
     expect(result.status).toBe(0);
@@ -65,7 +60,6 @@ describe('tierplan analyze on a revision with its parent', () => {
 
     const observed = new Map([...resultsByPoint(parent), ...resultsByPoint(revision)]);
     const fitted = revision.runs.filter((run) => run.purpose !== 'holdout');
-    const X = new Matrix(fitted.map((run) => modelRow(revision.model.terms, run.coded)));
     for (const response of analysis.responses) {
       expect(response.terms).toEqual(['1', ...revision.model.terms]);
       expect(response.n).toBe(fitted.length);
@@ -75,8 +69,13 @@ describe('tierplan analyze on a revision with its parent', () => {
       for (const run of added) expect(run.observed).toBe(observed.get(run.point)![response.id]);
       expect(Math.min(...added.map((run) => run.run))).toBeGreaterThan(parent.runs.length);
       expect(response.holdout.map((h) => h.point).sort()).toEqual(parent.runs.filter((run) => run.purpose === 'holdout').map((run) => run.point).sort());
-      const y = Matrix.columnVector(fitted.map((run) => observed.get(run.point)![response.id]));
-      const beta = new QrDecomposition(X).solve(y).getColumn(0);
+      // GLS at the analysis's REML variance ratio, sessions as fixed blocks (a split-plot sample).
+      const ratio = (response as { varianceComponents?: { ratio: number } | null }).varianceComponents?.ratio ?? 0;
+      const { beta } = glsReferenceFit(
+        fitted.map((run) => ({ ...run, y: observed.get(run.point)![response.id] })),
+        revision.model.terms,
+        ratio,
+      );
       response.coefficients.forEach((c, j) => expect(c.estimate).toBeCloseTo(beta[j], 7));
     }
   });
